@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"math"
 	"os"
+	"regexp"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -87,6 +88,10 @@ var requiredTypeKeys = []string{
 	"limits.mmo", "limits.max_alt_ft", "limits.cl_buffet",
 }
 
+// decodeErr matches the TOML decoder's type errors, which carry the line and
+// key only in their text: `toml: line 31 (last key "limits.mmo"): reason`.
+var decodeErr = regexp.MustCompile(`^toml: (?:line (\d+) )?\(last key "([^"]*)"\): (.*)$`)
+
 // ParseType decodes and validates a type file; name is used in errors.
 // Errors read "name:line: key: reason" (line omitted where unknown).
 func ParseType(name string, data []byte) (*model.Type, error) {
@@ -100,6 +105,13 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 				key = " " + pe.LastKey + ":"
 			}
 			return nil, fmt.Errorf("%s:%d:%s %s", name, pe.Position.Line, key, pe.Message)
+		}
+		if m := decodeErr.FindStringSubmatch(err.Error()); m != nil {
+			line := ""
+			if m[1] != "" {
+				line = ":" + m[1]
+			}
+			return nil, fmt.Errorf("%s%s: %s: %s", name, line, m[2], strings.Replace(m[3], "destination has type", "want", 1))
 		}
 		return nil, fmt.Errorf("%s: %w", name, err)
 	}

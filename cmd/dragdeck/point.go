@@ -1,0 +1,135 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"text/tabwriter"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+// pointJSON is the stable JSON of one analysed snapshot (DESIGN.md §5).
+type pointJSON struct {
+	CL                   float64 `json:"cl"`
+	CDMeasured           float64 `json:"cd_measured"`
+	CDBaseline           float64 `json:"cd_baseline"`
+	CDInduced            float64 `json:"cd_induced"`
+	CDWave               float64 `json:"cd_wave"`
+	CDParasiteBaseline   float64 `json:"cd_parasite_baseline"`
+	CDParasiteMeasured   float64 `json:"cd_parasite_measured"`
+	ExcessDragCounts     float64 `json:"excess_drag_counts"`
+	DragDeviationPct     float64 `json:"drag_deviation_pct"`
+	FuelFlowExpectedKgph float64 `json:"fuel_flow_expected_kgph"`
+	FuelFlowDeviationPct float64 `json:"fuel_flow_deviation_pct"`
+	ThrustN              float64 `json:"thrust_n"`
+	DragN                float64 `json:"drag_n"`
+	LoadFactor           float64 `json:"load_factor"`
+	TASKt                float64 `json:"tas_kt"`
+	ISADevC              float64 `json:"isa_dev_c"`
+	Delta                float64 `json:"delta"`
+	Theta                float64 `json:"theta"`
+	QPa                  float64 `json:"q_pa"`
+}
+
+func newPointJSON(p model.Point) pointJSON {
+	return pointJSON{
+		CL: p.CL, CDMeasured: p.CDMeasured, CDBaseline: p.CDBaseline,
+		CDInduced: p.CDInduced, CDWave: p.CDWave,
+		CDParasiteBaseline: p.CDParasiteBaseline, CDParasiteMeasured: p.CDParasiteMeasured,
+		ExcessDragCounts: p.ExcessCounts, DragDeviationPct: p.DragDevPct,
+		FuelFlowExpectedKgph: p.FuelFlowExpected * model.Hour, FuelFlowDeviationPct: p.FuelFlowDevPct,
+		ThrustN: p.Thrust, DragN: p.Drag, LoadFactor: p.LoadFactor,
+		TASKt: p.TAS / model.Knot, ISADevC: p.ISADev,
+		Delta: p.Delta, Theta: p.Theta, QPa: p.Q,
+	}
+}
+
+func runPoint(e *env, args []string) error {
+	fs := newFlagSet("point",
+		"dragdeck point [--type FILE] --weight-kg W --alt-ft H --mach M --fuel-flow-kgph F --sat-c C [--bank-deg B] [--vs-fpm V] [--accel-kt-per-min A] [--json]",
+		`Analyses one cruise snapshot against the type's baseline drag polar.
+Thrust comes from fuel flow through TSFC = (a + b M) sqrt(theta); drag is thrust
+less the climb and acceleration terms (energy method). The measured drag
+coefficient is split into induced (k CL^2), wave (Korn + Lock) and parasite
+parts; the excess over the baseline is given in drag counts (0.0001) and in %.`,
+		"dragdeck point --weight-kg 65000 --alt-ft 35000 --mach 0.78 --fuel-flow-kgph 2350 --sat-c -54")
+	typ := fs.typeFlag()
+	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
+	alt := fs.float("alt-ft", "H", 0, true, "pressure altitude, ft")
+	mach := fs.float("mach", "M", 0, true, "Mach number")
+	ff := fs.float("fuel-flow-kgph", "F", 0, true, "total fuel flow of all engines, kg/h")
+	sat := fs.float("sat-c", "C", 0, true, "static air temperature, °C")
+	bank := fs.float("bank-deg", "B", 0, false, "bank angle, degrees")
+	vs := fs.float("vs-fpm", "V", 0, false, "vertical speed, ft/min (climb positive)")
+	acc := fs.float("accel-kt-per-min", "A", 0, false, "rate of change of true airspeed, kt/min")
+	asJSON := fs.jsonFlag()
+	if err := fs.parse(args, e.stdout); err != nil {
+		return helpOK(err)
+	}
+	t, err := loadType(*typ)
+	if err != nil {
+		return err
+	}
+	s := model.Snapshot{
+		Weight:   *w,
+		Altitude: feed.MetresFromFeet(*alt),
+		Mach:     *mach,
+		SAT:      feed.KelvinFromCelsius(*sat),
+		FuelFlow: feed.KgPerSFromKgPerH(*ff),
+		Bank:     feed.RadFromDeg(*bank),
+		VS:       feed.MPerSFromFtPerMin(*vs),
+		Accel:    feed.MPerS2FromKtPerMin(*acc),
+	}
+	if bad := feed.CheckSnapshot(s); bad != nil {
+		return flagError(bad)
+	}
+	p := model.Analyze(t, s)
+	if *asJSON {
+		return writeJSON(e.stdout, newPointJSON(p))
+	}
+	writePointTable(e.stdout, t, s, p)
+	return nil
+}
+
+// helpOK turns errHelp into success; other errors pass through.
+func helpOK(err error) error {
+	if err == errHelp {
+		return nil
+	}
+	return err
+}
+
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(v)
+}
+
+func writePointTable(w io.Writer, t *model.Type, s model.Snapshot, p model.Point) {
+	fmt.Fprintf(w, "Snapshot analysis: %s\n", t.Name)
+	fmt.Fprintf(w, "%.0f kg at %.0f ft, Mach %.3f, SAT %.1f °C (ISA %+.1f), bank %.1f° (n %.4f)\n\n",
+		s.Weight, s.Altitude/model.Foot, s.Mach, s.SAT-model.CelsiusZero, p.ISADev, s.Bank*180/math.Pi, p.LoadFactor)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	row := func(cells ...string) {
+		for _, c := range cells {
+			fmt.Fprint(tw, c, "\t")
+		}
+		fmt.Fprintln(tw)
+	}
+	f5 := func(v float64) string { return fmt.Sprintf("%.5f", v) }
+	row("drag coefficient", "measured", "baseline", "difference")
+	row("parasite", f5(p.CDParasiteMeasured), f5(p.CDParasiteBaseline), fmt.Sprintf("%+.5f", p.CDParasiteMeasured-p.CDParasiteBaseline))
+	row("induced k CL²", f5(p.CDInduced), f5(p.CDInduced), "")
+	row("wave", f5(p.CDWave), f5(p.CDWave), "")
+	row("total", f5(p.CDMeasured), f5(p.CDBaseline), fmt.Sprintf("%+.5f", p.CDMeasured-p.CDBaseline))
+	tw.Flush()
+	fmt.Fprintf(w, "\nexcess drag       %+.1f counts (%+.2f %% of baseline drag)\n", p.ExcessCounts, p.DragDevPct)
+	fmt.Fprintf(w, "fuel flow         %.0f kg/h, expected %.0f kg/h (%+.2f %%)\n", s.FuelFlow*model.Hour, p.FuelFlowExpected*model.Hour, p.FuelFlowDevPct)
+	fmt.Fprintf(w, "thrust / drag     %.0f N / %.0f N\n", p.Thrust, p.Drag)
+	fmt.Fprintf(w, "lift coefficient  %.4f\n", p.CL)
+	fmt.Fprintf(w, "air               TAS %.1f kt, q %.0f Pa, delta %.4f, theta %.4f\n\n", p.TAS/model.Knot, p.Q, p.Delta, p.Theta)
+	fmt.Fprintln(w, caution)
+}

@@ -1,0 +1,193 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"math"
+	"sort"
+	"strings"
+	"testing"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+func runArgs(args ...string) (code int, stdout, stderr string) {
+	var out, errb bytes.Buffer
+	code = run(context.Background(), args, strings.NewReader(""), &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+var pointArgs = []string{"point", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78",
+	"--fuel-flow-kgph", "2400", "--sat-c", "-50", "--bank-deg", "10", "--vs-fpm", "100", "--accel-kt-per-min", "0.5"}
+
+func TestRunExitCodes(t *testing.T) {
+	tests := []struct {
+		name       string
+		args       []string
+		code       int
+		stdout     string // substring
+		stderrLine string // substring of the single stderr line
+	}{
+		{"no arguments: demo cruise table", nil, 0, "optimum ft", ""},
+		{"help", []string{"help"}, 0, "commands:", ""},
+		{"point table", pointArgs, 0, "excess drag", ""},
+		{"speed table", []string{"speed", "--weight-kg", "65000", "--alt-ft", "35000"}, 0, "maximum altitude", ""},
+		{"speed with excess", []string{"speed", "--weight-kg", "65000", "--alt-ft", "35000", "--excess-counts", "20"}, 0, "with +20 counts", ""},
+		{"bank table", []string{"bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78"}, 0, "1.1547", ""},
+		{"unknown command", []string{"fly"}, 2, "", `unknown command "fly"`},
+		{"missing flag", []string{"point", "--weight-kg", "65000"}, 2, "", "--alt-ft: missing"},
+		{"weight zero", []string{"speed", "--weight-kg", "0", "--alt-ft", "35000"}, 2, "", "--weight-kg: must be > 0"},
+		{"Mach above 1", []string{"bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "1.1"}, 2, "", "--mach: must be in (0, 1)"},
+		{"bank 90", append(append([]string{}, pointArgs[:11]...), "--bank-deg", "90"), 2, "", "--bank-deg: |bank| must be < 90°"},
+		{"not a number", []string{"point", "--mach", "fast"}, 2, "", `--mach: "fast" is not a number`},
+		{"unknown flag", []string{"bank", "--wing", "3"}, 2, "", "not defined: --wing"},
+		{"negative cost index", []string{"speed", "--weight-kg", "65000", "--alt-ft", "35000", "--cost-index", "-1"}, 2, "", "--cost-index"},
+		{"missing type file", []string{"speed", "--type", "/no/such.toml", "--weight-kg", "65000", "--alt-ft", "35000"}, 2, "", "--type: type file: open /no/such.toml"},
+		{"another type drives everything", []string{"speed", "--type", "../../testdata/types/widebody.toml", "--weight-kg", "230000", "--alt-ft", "37000"}, 0, "WB-9 test widebody", ""},
+		{"invalid type names key and line", []string{"bank", "--type", "../../testdata/types/bad_oswald.toml", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78"}, 2, "", "bad_oswald.toml:7: polar.oswald: must be in (0, 1.2]"},
+		{"altitude out of range", []string{"speed", "--weight-kg", "65000", "--alt-ft", "70000"}, 2, "", "--alt-ft: pressure altitude"},
+		{"ISA deviation too hot", []string{"speed", "--weight-kg", "65000", "--alt-ft", "0", "--isa-dev-c", "50"}, 2, "", "--isa-dev-c"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			code, out, errs := runArgs(tc.args...)
+			if code != tc.code {
+				t.Fatalf("exit %d, want %d (stderr %q)", code, tc.code, errs)
+			}
+			if !strings.Contains(out, tc.stdout) {
+				t.Errorf("stdout lacks %q:\n%s", tc.stdout, out)
+			}
+			if tc.stderrLine == "" && errs != "" {
+				t.Errorf("unexpected stderr %q", errs)
+			}
+			if tc.stderrLine != "" {
+				if !strings.Contains(errs, tc.stderrLine) || strings.Count(errs, "\n") != 1 {
+					t.Errorf("stderr %q: want one line containing %q", errs, tc.stderrLine)
+				}
+				if out != "" {
+					t.Errorf("nothing should go to stdout on error, got %q", out)
+				}
+			}
+			if tc.code == 0 && tc.name != "help" && !strings.Contains(out, "not approved performance data") {
+				t.Error("human-readable output lacks the caution")
+			}
+		})
+	}
+}
+
+func TestEveryCommandHasHelp(t *testing.T) {
+	for _, c := range commands() {
+		code, out, errs := runArgs(c.name, "--help")
+		if code != 0 || errs != "" {
+			t.Errorf("%s --help: exit %d, stderr %q", c.name, code, errs)
+		}
+		for _, want := range []string{"usage: dragdeck " + c.name, "flags:", "example:", "--type FILE"} {
+			if !strings.Contains(out, want) {
+				t.Errorf("%s --help lacks %q", c.name, want)
+			}
+		}
+	}
+}
+
+func jsonKeys(t *testing.T, s string) []string {
+	t.Helper()
+	var m map[string]any
+	if err := json.Unmarshal([]byte(s), &m); err != nil {
+		t.Fatalf("not a JSON object: %v\n%s", err, s)
+	}
+	var keys []string
+	for k := range m {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	return keys
+}
+
+func hasAll(t *testing.T, got []string, want ...string) {
+	t.Helper()
+	set := map[string]bool{}
+	for _, k := range got {
+		set[k] = true
+	}
+	for _, k := range want {
+		if !set[k] {
+			t.Errorf("JSON lacks field %q (has %v)", k, got)
+		}
+	}
+}
+
+// The JSON field names are a stable contract (DESIGN.md §5), and the numbers
+// are those of the model for the same snapshot.
+func TestPointJSON(t *testing.T) {
+	code, out, errs := runArgs(append(pointArgs, "--json")...)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	hasAll(t, jsonKeys(t, out), "cl", "cd_measured", "cd_baseline", "cd_induced", "cd_wave",
+		"cd_parasite_baseline", "cd_parasite_measured", "excess_drag_counts", "drag_deviation_pct",
+		"fuel_flow_expected_kgph", "fuel_flow_deviation_pct", "thrust_n", "drag_n", "load_factor",
+		"tas_kt", "isa_dev_c", "delta", "theta", "q_pa")
+	var got pointJSON
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	p := model.Analyze(feed.DemoType(), model.Snapshot{
+		Weight: 65000, Altitude: feed.MetresFromFeet(35000), Mach: 0.78, SAT: feed.KelvinFromCelsius(-50),
+		FuelFlow: feed.KgPerSFromKgPerH(2400), Bank: feed.RadFromDeg(10), VS: feed.MPerSFromFtPerMin(100),
+		Accel: feed.MPerS2FromKtPerMin(0.5),
+	})
+	if want := newPointJSON(p); got != want {
+		t.Errorf("JSON %+v\nwant  %+v", got, want)
+	}
+	if math.Abs(got.LoadFactor-1/math.Cos(10*math.Pi/180)) > 1e-12 || math.Abs(got.TASKt-p.TAS/model.Knot) > 1e-9 {
+		t.Errorf("load factor %g, TAS %g kt", got.LoadFactor, got.TASKt)
+	}
+}
+
+func TestSpeedJSON(t *testing.T) {
+	code, out, _ := runArgs("speed", "--weight-kg", "65000", "--alt-ft", "35000", "--cost-index", "20", "--excess-counts", "25", "--json")
+	if code != 0 {
+		t.Fatalf("exit %d", code)
+	}
+	hasAll(t, jsonKeys(t, out), "mach_min_drag", "mach_max_range", "mach_long_range", "mach_econ",
+		"sr_max_nm_per_kg", "optimum_alt_ft", "max_alt_ft", "baseline")
+	var j speedJSON
+	if err := json.Unmarshal([]byte(out), &j); err != nil {
+		t.Fatal(err)
+	}
+	o := model.CruiseOptimum(feed.DemoType(), 65000, 35000*model.Foot, 0, 20.0/60, 25*model.DragCount)
+	if math.Abs(j.MachEcon-o.Econ.Mach) > 1e-12 || math.Abs(j.OptimumAltFt-o.OptimumAltitude/model.Foot) > 1e-6 {
+		t.Errorf("JSON %+v does not match the model %+v", j, o)
+	}
+	if j.Baseline == nil || j.Baseline.SRMaxNmPerKg <= j.SRMaxNmPerKg {
+		t.Errorf("baseline SR should beat the worn polar's: %+v", j.Baseline)
+	}
+}
+
+func TestBankJSON(t *testing.T) {
+	code, out, _ := runArgs("bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78", "--sat-c", "-50", "--json")
+	if code != 0 {
+		t.Fatalf("exit %d", code)
+	}
+	var rows []map[string]float64
+	if err := json.Unmarshal([]byte(out), &rows); err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) != 10 {
+		t.Fatalf("%d rows, want 10", len(rows))
+	}
+	for i, r := range rows {
+		if len(r) != 5 {
+			t.Errorf("row %d has fields %v, want the five of DESIGN.md §5", i, r)
+		}
+		if r["bank_deg"] != float64(5*i) {
+			t.Errorf("row %d bank %g, want %d", i, r["bank_deg"], 5*i)
+		}
+	}
+	// 30°: n = 1.1547, induced +33.3 % (n = 1/cos φ).
+	if r := rows[6]; math.Abs(r["load_factor"]-1.1547) > 5e-5 || math.Abs(r["induced_drag_increase_pct"]-33.33) > 0.005 {
+		t.Errorf("30° row %v", r)
+	}
+}

@@ -1,0 +1,117 @@
+package feed
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"dragdeck/model"
+)
+
+func TestDemoTypeLoads(t *testing.T) {
+	ty := DemoType()
+	if err := ty.Validate(); err != nil {
+		t.Fatal(err)
+	}
+	if ty.EngineCount != 2 || ty.MaxThrustPerDelta <= 0 {
+		t.Errorf("demo type should be a twin with a thrust limit: %+v", ty)
+	}
+	if ty2, err := LoadType(""); err != nil || ty2.Name != ty.Name {
+		t.Errorf("LoadType(\"\") = %v, %v; want the demo type", ty2, err)
+	}
+}
+
+// The invented demo type must behave like a narrow-body twin (issue 2): at
+// mid weights maximum-range Mach 0.76–0.79, long-range about 0.02 above it,
+// optimum altitude 33,000–39,000 ft below a buffet-limited maximum altitude,
+// cruise fuel flow 2,000–3,000 kg/h. A plausibility check of invented data.
+func TestDemoTypeIsPlausible(t *testing.T) {
+	ty := DemoType()
+	for _, w := range []float64{62000, 66000, 70000} {
+		maxAlt, lim := model.MaxAltitude(ty, w, 0, 0)
+		opt, _ := model.OptimumAltitude(ty, w, 0, 0, maxAlt)
+		air := model.AirISA(opt, 0)
+		mr := model.MaxRangeMach(ty, w, air, 0)
+		lrc := model.LongRangeMach(ty, w, air, 0, mr)
+		ff := mr.FuelFlow * model.Hour
+		optFt, maxFt := opt/model.Foot, maxAlt/model.Foot
+		if mr.Mach < 0.76 || mr.Mach > 0.79 {
+			t.Errorf("%.0f kg: max-range Mach %.3f outside 0.76–0.79", w, mr.Mach)
+		}
+		if d := lrc.Mach - mr.Mach; d < 0.015 || d > 0.03 {
+			t.Errorf("%.0f kg: long-range Mach %.3f is %.3f above max-range", w, lrc.Mach, d)
+		}
+		if optFt < 33000 || optFt > 39000 || optFt >= maxFt || lim != model.LimitBuffet {
+			t.Errorf("%.0f kg: optimum %.0f ft, maximum %.0f ft (%s)", w, optFt, maxFt, lim)
+		}
+		if ff < 2000 || ff > 3000 {
+			t.Errorf("%.0f kg: cruise fuel flow %.0f kg/h outside 2,000–3,000", w, ff)
+		}
+	}
+}
+
+func TestParseTypeErrors(t *testing.T) {
+	demo := string(DemoTypeTOML())
+	tests := []struct {
+		name string
+		toml string
+		want string // substring of the error
+	}{
+		{"impossible value names key and line", strings.Replace(demo, "area_m2 = 112.0", "area_m2 = -112.0", 1), "x.toml:12: wing.area_m2: must be > 0"},
+		{"oswald above 1.2", strings.Replace(demo, "oswald = 0.74", "oswald = 1.5", 1), "x.toml:17: polar.oswald: must be in (0, 1.2]"},
+		{"mmo of 1", strings.Replace(demo, "mmo = 0.82", "mmo = 1.0", 1), "limits.mmo: must be in (0, 1)"},
+		{"missing key", strings.Replace(demo, "cl_buffet = 0.85", "", 1), "x.toml: limits.cl_buffet: missing (required)"},
+		{"unknown key", strings.Replace(demo, "sweep_deg = 25.0", "sweep_deg = 25.0\nflap = 3", 1), "x.toml:23: wave.flap: unknown key"},
+		{"wrong type", strings.Replace(demo, "mmo = 0.82", `mmo = "fast"`, 1), "x.toml:31: limits.mmo: incompatible types"},
+		{"syntax error", demo + "\n[limits\n", "to end table name"},
+		{"zero thrust when given", strings.Replace(demo, "= 125000.0", "= 0.0", 1), "engine.max_cruise_thrust_per_delta_n: must be > 0 when given"},
+		{"empty file", "", "x.toml: name: missing (required)"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := ParseType("x.toml", []byte(tc.toml))
+			if err == nil || !strings.Contains(err.Error(), tc.want) {
+				t.Fatalf("error %v, want it to contain %q", err, tc.want)
+			}
+		})
+	}
+}
+
+func TestParseTypeUnits(t *testing.T) {
+	ty := DemoType()
+	const tol = 1e-9
+	checks := []struct {
+		name      string
+		got, want float64
+	}{
+		{"sweep 25° in rad", ty.Sweep, 25 * 3.141592653589793 / 180},
+		{"ceiling 41,000 ft in m", ty.MaxAltitude, 41000 * 0.3048},
+		{"TSFC a 0.38 /h in kg/(N·s)", ty.TSFCA, 0.38 / (9.80665 * 3600)},
+	}
+	for _, c := range checks {
+		if d := c.got - c.want; d > tol || d < -tol {
+			t.Errorf("%s: got %g, want %g", c.name, c.got, c.want)
+		}
+	}
+	// Without the optional thrust key there is no thrust limit.
+	demo := strings.Replace(string(DemoTypeTOML()), "max_cruise_thrust_per_delta_n = 125000.0", "", 1)
+	nt, err := ParseType("x.toml", []byte(demo))
+	if err != nil || nt.MaxThrustPerDelta != 0 {
+		t.Errorf("without the thrust key: %v, thrust %g", err, nt.MaxThrustPerDelta)
+	}
+}
+
+func TestLoadTypeFile(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "t.toml")
+	if err := os.WriteFile(p, DemoTypeTOML(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := LoadType(p); err != nil {
+		t.Errorf("LoadType(%s): %v", p, err)
+	}
+	if _, err := LoadType(filepath.Join(dir, "missing.toml")); err == nil || !strings.Contains(err.Error(), "missing.toml") {
+		t.Errorf("missing file: error %v should name the file", err)
+	}
+}

@@ -1,0 +1,52 @@
+package feed
+
+import (
+	"math"
+	"testing"
+
+	"dragdeck/model"
+)
+
+func goodSnapshot() model.Snapshot {
+	return model.Snapshot{Weight: 65000, Altitude: 35000 * model.Foot, Mach: 0.78,
+		SAT: KelvinFromCelsius(-54), FuelFlow: KgPerSFromKgPerH(2400)}
+}
+
+// Every reject reason of DESIGN.md §3.1, named by field.
+func TestCheckSnapshot(t *testing.T) {
+	tests := []struct {
+		name  string
+		spoil func(*model.Snapshot)
+		want  Field // "" for accepted
+	}{
+		{"good", func(*model.Snapshot) {}, ""},
+		{"limits are inclusive", func(s *model.Snapshot) { s.Altitude = 65000 * model.Foot; s.SAT = KelvinFromCelsius(-100) }, ""},
+		{"weight zero", func(s *model.Snapshot) { s.Weight = 0 }, FieldWeight},
+		{"weight NaN", func(s *model.Snapshot) { s.Weight = math.NaN() }, FieldWeight},
+		{"altitude too low", func(s *model.Snapshot) { s.Altitude = -1001 * model.Foot }, FieldAltitude},
+		{"altitude too high", func(s *model.Snapshot) { s.Altitude = 65001 * model.Foot }, FieldAltitude},
+		{"Mach zero", func(s *model.Snapshot) { s.Mach = 0 }, FieldMach},
+		{"Mach one", func(s *model.Snapshot) { s.Mach = 1 }, FieldMach},
+		{"SAT too cold", func(s *model.Snapshot) { s.SAT = KelvinFromCelsius(-101) }, FieldSAT},
+		{"SAT too hot", func(s *model.Snapshot) { s.SAT = KelvinFromCelsius(61) }, FieldSAT},
+		{"fuel flow zero", func(s *model.Snapshot) { s.FuelFlow = 0 }, FieldFuelFlow},
+		{"fuel flow Inf", func(s *model.Snapshot) { s.FuelFlow = math.Inf(1) }, FieldFuelFlow},
+		{"bank 90", func(s *model.Snapshot) { s.Bank = RadFromDeg(90) }, FieldBank},
+		{"bank -95", func(s *model.Snapshot) { s.Bank = RadFromDeg(-95) }, FieldBank},
+		{"vs NaN", func(s *model.Snapshot) { s.VS = math.NaN() }, FieldVS},
+		{"accel Inf", func(s *model.Snapshot) { s.Accel = math.Inf(-1) }, FieldAccel},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			s := goodSnapshot()
+			tc.spoil(&s)
+			err := CheckSnapshot(s)
+			switch {
+			case tc.want == "" && err != nil:
+				t.Errorf("rejected: %v", err)
+			case tc.want != "" && (err == nil || err.Field != tc.want):
+				t.Errorf("got %v, want a %s error", err, tc.want)
+			}
+		})
+	}
+}
