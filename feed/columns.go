@@ -1,0 +1,107 @@
+package feed
+
+import (
+	"bytes"
+	"strings"
+)
+
+// column identifies a known snapshot column.
+type column int
+
+const (
+	colTime column = iota
+	colTail
+	colFlight
+	colWeight
+	colAlt
+	colMach
+	colFuelFlow
+	colTemp
+	colBank
+	colVS
+	colAccel
+	numColumns
+)
+
+// unit flags of the columns that come in two units.
+const (
+	unitKg   = "weight_kg"
+	unitLb   = "weight_lb"
+	unitFt   = "alt_ft"
+	unitM    = "alt_m"
+	unitKgph = "fuel_flow_kgph"
+	unitLbph = "fuel_flow_lbph"
+	unitSAT  = "sat_c"
+	unitTAT  = "tat_c"
+)
+
+// knownColumns maps each accepted header name (lower case) to its column.
+var knownColumns = map[string]column{
+	"time": colTime, "tail": colTail, "flight": colFlight,
+	unitKg: colWeight, unitLb: colWeight,
+	unitFt: colAlt, unitM: colAlt,
+	"mach":   colMach,
+	unitKgph: colFuelFlow, unitLbph: colFuelFlow,
+	unitSAT: colTemp, unitTAT: colTemp,
+	"bank_deg": colBank, "vs_fpm": colVS, "accel_kt_per_min": colAccel,
+}
+
+// requiredColumns names, for each required column, how to ask for it.
+var requiredColumns = []struct {
+	col  column
+	name string
+}{
+	{colTime, "time"},
+	{colTail, "tail"},
+	{colWeight, "weight_kg (or weight_lb)"},
+	{colAlt, "alt_ft (or alt_m)"},
+	{colMach, "mach"},
+	{colFuelFlow, "fuel_flow_kgph (or fuel_flow_lbph)"},
+	{colTemp, "sat_c (or tat_c)"},
+}
+
+// header is the column layout of one file.
+type header struct {
+	n       int                // fields per row
+	idx     [numColumns]int    // field index of each column, −1 if absent
+	name    [numColumns]string // the file's name of each column present
+	unknown []string           // columns that are ignored
+}
+
+// parseHeader builds the layout from the header fields.
+func parseHeader(fields [][]byte) (*header, string) {
+	h := &header{n: len(fields)}
+	for i := range h.idx {
+		h.idx[i] = -1
+	}
+	seen := map[string]bool{}
+	for i, f := range fields {
+		name := strings.ToLower(string(bytes.TrimSpace(f)))
+		if seen[name] {
+			return nil, "column " + quoteName(name) + " appears twice"
+		}
+		seen[name] = true
+		c, ok := knownColumns[name]
+		if !ok {
+			h.unknown = append(h.unknown, quoteName(name))
+			continue
+		}
+		if h.idx[c] >= 0 {
+			return nil, "columns " + h.name[c] + " and " + name + " both given; keep one"
+		}
+		h.idx[c], h.name[c] = i, name
+	}
+	for _, r := range requiredColumns {
+		if h.idx[r.col] < 0 {
+			return nil, "missing required column " + r.name
+		}
+	}
+	return h, ""
+}
+
+func quoteName(s string) string {
+	if s == "" {
+		return `""`
+	}
+	return s
+}

@@ -1,0 +1,373 @@
+package feed
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+	"strconv"
+	"time"
+)
+
+// maxRecord bounds a quoted record that spans lines, and maxLine one
+// physical line, so that memory stays flat on any input.
+const (
+	maxRecord = 64 << 10
+	maxLine   = 1 << 20
+)
+
+var utf8BOM = []byte{0xEF, 0xBB, 0xBF}
+
+// Decoder turns the physical lines of a snapshot CSV (DESIGN.md §3.1) into
+// records. It is fed one line at a time, so the file reader and the follower
+// of a growing file share it. Lines starting with '#' and blank lines are
+// skipped; the first other line is the header; quoted fields follow RFC 4180
+// and may span lines.
+type Decoder struct {
+	name  string
+	hdr   *header
+	first bool // no line seen yet (a UTF-8 BOM may lead it)
+
+	pending     []byte // a quoted record that spans lines
+	pendingLine int
+	inQuote     bool
+
+	fields  [][]byte
+	scratch []byte
+	tails   map[string]string // interned tail and flight names
+	flights map[string]string
+
+	stats Stats
+}
+
+// NewDecoder returns a decoder for the file called name (used in errors).
+func NewDecoder(name string) *Decoder {
+	return &Decoder{name: name, first: true, tails: map[string]string{}, flights: map[string]string{}}
+}
+
+// Stats returns the rows counted so far.
+func (d *Decoder) Stats() Stats { return d.stats }
+
+// Unknown returns the ignored columns of the header, if any.
+func (d *Decoder) Unknown() []string {
+	if d.hdr == nil {
+		return nil
+	}
+	return d.hdr.unknown
+}
+
+// HasHeader reports whether the header has been read.
+func (d *Decoder) HasHeader() bool { return d.hdr != nil }
+
+// Line feeds physical line n (1-based, without its line terminator). It
+// returns ok = true and the record for an accepted row; a *RowError for a
+// rejected row; a *FileError when the file cannot be read as snapshots; or
+// nothing for a comment, a blank line, the header or an unfinished quoted
+// record. The decoder does not keep line after it returns.
+func (d *Decoder) Line(line []byte, n int) (rec Record, ok bool, err error) {
+	if d.first {
+		line = bytes.TrimPrefix(line, utf8BOM)
+		d.first = false
+	}
+	if k := len(line); k > 0 && line[k-1] == '\r' {
+		line = line[:k-1]
+	}
+	if d.inQuote {
+		d.pending = append(append(d.pending, '\n'), line...)
+		if openQuote(line, true) {
+			if len(d.pending) > maxRecord {
+				d.pending, d.inQuote = d.pending[:0], false
+				return d.reject(d.pendingLine, "row", KindQuote, fmt.Sprintf("quoted field not closed within %d KiB", maxRecord>>10))
+			}
+			return Record{}, false, nil
+		}
+		d.inQuote = false
+		return d.record(d.pending, d.pendingLine)
+	}
+	if len(line) > 0 && line[0] == '#' || len(bytes.TrimSpace(line)) == 0 {
+		return Record{}, false, nil
+	}
+	if openQuote(line, false) {
+		d.pending = append(d.pending[:0], line...)
+		d.pendingLine, d.inQuote = n, true
+		return Record{}, false, nil
+	}
+	return d.record(line, n)
+}
+
+// openQuote reports whether a record is still inside a quoted field at the
+// end of line, following RFC 4180; inQuoted says the line starts inside one.
+// A quoting error ends the record (split reports it).
+func openQuote(line []byte, inQuoted bool) bool {
+	if !inQuoted && bytes.IndexByte(line, '"') < 0 {
+		return false
+	}
+	const (
+		fieldStart = iota
+		unquoted
+		quoted
+		afterQuote
+		trailing // spaces after a closing quote
+	)
+	state := fieldStart
+	if inQuoted {
+		state = quoted
+	}
+	for _, c := range line {
+		switch state {
+		case fieldStart:
+			switch c {
+			case ' ', '\t', ',':
+			case '"':
+				state = quoted
+			default:
+				state = unquoted
+			}
+		case unquoted:
+			switch c {
+			case ',':
+				state = fieldStart
+			case '"':
+				return false // bare quote: an error, the record ends here
+			}
+		case quoted:
+			if c == '"' {
+				state = afterQuote
+			}
+		case afterQuote:
+			switch c {
+			case '"':
+				state = quoted
+			case ',':
+				state = fieldStart
+			case ' ', '\t':
+				state = trailing
+			default:
+				return false // text after a closing quote: an error
+			}
+		case trailing:
+			switch c {
+			case ',':
+				state = fieldStart
+			case ' ', '\t':
+			default:
+				return false
+			}
+		}
+	}
+	return state == quoted
+}
+
+// End finishes the input: an open quoted record is rejected, and a file with
+// no header is a *FileError.
+func (d *Decoder) End() error {
+	if d.inQuote {
+		d.inQuote = false
+		_, _, err := d.reject(d.pendingLine, "row", KindQuote, "quoted field not closed before the end of the file")
+		return err
+	}
+	if d.hdr == nil {
+		return &FileError{File: d.name, Reason: "no header line (the file is empty or holds only comments)"}
+	}
+	return nil
+}
+
+// TooLong rejects line n for being longer than the reader accepts.
+func (d *Decoder) TooLong(n int) error {
+	d.inQuote = false
+	if d.hdr == nil {
+		return &FileError{File: d.name, Line: n, Reason: fmt.Sprintf("header line longer than %d MiB", maxLine>>20)}
+	}
+	_, _, err := d.reject(n, "row", KindTooLong, fmt.Sprintf("line longer than %d MiB", maxLine>>20))
+	return err
+}
+
+func (d *Decoder) reject(n int, col, kind, reason string) (Record, bool, error) {
+	d.stats.Read++
+	d.stats.Rejected++
+	return Record{}, false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Kind: kind}
+}
+
+// record handles one complete CSV record that starts on line n.
+func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
+	if msg := d.split(rec); msg != "" {
+		if d.hdr == nil {
+			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "header: " + msg}
+		}
+		return d.reject(n, "row", KindQuote, msg)
+	}
+	if d.hdr == nil {
+		h, msg := parseHeader(d.fields)
+		if msg != "" {
+			return Record{}, false, &FileError{File: d.name, Line: n, Reason: msg}
+		}
+		d.hdr = h
+		return Record{}, false, nil
+	}
+	return d.row(n)
+}
+
+// split splits rec into d.fields by RFC 4180 rules. Unquoted fields are
+// trimmed of spaces; quoted fields keep their content with "" as one quote.
+func (d *Decoder) split(rec []byte) string {
+	d.fields = d.fields[:0]
+	if bytes.IndexByte(rec, '"') < 0 { // fast path: no quoting
+		for {
+			i := bytes.IndexByte(rec, ',')
+			if i < 0 {
+				d.fields = append(d.fields, bytes.TrimSpace(rec))
+				return ""
+			}
+			d.fields = append(d.fields, bytes.TrimSpace(rec[:i]))
+			rec = rec[i+1:]
+		}
+	}
+	if cap(d.scratch) < len(rec) {
+		d.scratch = make([]byte, 0, len(rec))
+	}
+	buf := d.scratch[:0]
+	for {
+		rest := bytes.TrimLeft(rec, " \t")
+		if len(rest) > 0 && rest[0] == '"' {
+			start := len(buf)
+			rest = rest[1:]
+			for {
+				i := bytes.IndexByte(rest, '"')
+				if i < 0 {
+					return "quoted field not closed"
+				}
+				buf = append(buf, rest[:i]...)
+				rest = rest[i+1:]
+				if len(rest) > 0 && rest[0] == '"' {
+					buf = append(buf, '"')
+					rest = rest[1:]
+					continue
+				}
+				break
+			}
+			d.fields = append(d.fields, buf[start:len(buf):len(buf)])
+			rest = bytes.TrimLeft(rest, " \t")
+			if len(rest) == 0 {
+				return ""
+			}
+			if rest[0] != ',' {
+				return "text after a closing quote"
+			}
+			rec = rest[1:]
+			continue
+		}
+		i := bytes.IndexByte(rec, ',')
+		f := rec
+		if i >= 0 {
+			f = rec[:i]
+		}
+		if bytes.IndexByte(f, '"') >= 0 {
+			return `a quote (") inside an unquoted field`
+		}
+		d.fields = append(d.fields, bytes.TrimSpace(f))
+		if i < 0 {
+			return ""
+		}
+		rec = rec[i+1:]
+	}
+}
+
+// row converts the fields of data line n into a record.
+func (d *Decoder) row(n int) (Record, bool, error) {
+	h := d.hdr
+	if len(d.fields) != h.n {
+		return d.reject(n, "row", KindFields, fmt.Sprintf("%d fields, the header has %d", len(d.fields), h.n))
+	}
+	f := func(c column) []byte { return d.fields[h.idx[c]] }
+
+	rec := Record{File: d.name, Line: n}
+	tf := f(colTime)
+	if len(tf) == 0 {
+		return d.reject(n, h.name[colTime], KindEmpty, "empty")
+	}
+	t, err := time.Parse(time.RFC3339, string(tf))
+	if err != nil {
+		return d.reject(n, h.name[colTime], KindTime, fmt.Sprintf("%q is not an RFC 3339 time such as 2026-03-01T10:22:00Z", tf))
+	}
+	rec.Time = t
+	tail := f(colTail)
+	if len(tail) == 0 {
+		return d.reject(n, h.name[colTail], KindEmpty, "empty")
+	}
+	rec.Tail = intern(d.tails, tail)
+	if h.idx[colFlight] >= 0 {
+		if len(d.flights) > 1<<16 {
+			clear(d.flights)
+		}
+		rec.Flight = intern(d.flights, f(colFlight))
+	}
+
+	var v [numColumns]float64
+	for c := colWeight; c < numColumns; c++ {
+		if h.idx[c] < 0 {
+			continue
+		}
+		b := d.fields[h.idx[c]]
+		if len(b) == 0 {
+			if c <= colTemp {
+				return d.reject(n, h.name[c], KindEmpty, "empty")
+			}
+			continue // optional: 0
+		}
+		x, err := strconv.ParseFloat(string(b), 64)
+		if err != nil {
+			return d.reject(n, h.name[c], KindNumber, fmt.Sprintf("%q is not a number", b))
+		}
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return d.reject(n, h.name[c], KindNotFinite, "not a finite number")
+		}
+		v[c] = x
+	}
+
+	s := &rec.Snap
+	s.Weight = v[colWeight]
+	if h.name[colWeight] == unitLb {
+		s.Weight = KgFromLb(v[colWeight])
+	}
+	s.Altitude = MetresFromFeet(v[colAlt])
+	if h.name[colAlt] == unitM {
+		s.Altitude = v[colAlt]
+	}
+	s.Mach = v[colMach]
+	s.FuelFlow = KgPerSFromKgPerH(v[colFuelFlow])
+	if h.name[colFuelFlow] == unitLbph {
+		s.FuelFlow = KgPerSFromLbPerH(v[colFuelFlow])
+	}
+	s.SAT = KelvinFromCelsius(v[colTemp])
+	if h.name[colTemp] == unitTAT {
+		s.SAT = SATFromTAT(s.SAT, s.Mach)
+	}
+	s.Bank = RadFromDeg(v[colBank])
+	s.VS = MPerSFromFtPerMin(v[colVS])
+	s.Accel = MPerS2FromKtPerMin(v[colAccel])
+	if e := CheckSnapshot(*s); e != nil {
+		col := h.name[fieldColumn[e.Field]]
+		if e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Kind == KindRange {
+			e.Reason = fmt.Sprintf("%s (from TAT %g °C at Mach %g)", e.Reason, v[colTemp], v[colMach])
+		}
+		return d.reject(n, col, e.Kind, e.Reason)
+	}
+	d.stats.Read++
+	d.stats.Accepted++
+	return rec, true, nil
+}
+
+// fieldColumn maps a validated field to its column.
+var fieldColumn = map[Field]column{
+	FieldWeight: colWeight, FieldAltitude: colAlt, FieldMach: colMach, FieldFuelFlow: colFuelFlow,
+	FieldSAT: colTemp, FieldBank: colBank, FieldVS: colVS, FieldAccel: colAccel,
+}
+
+// intern returns the one shared string for b.
+func intern(m map[string]string, b []byte) string {
+	if s, ok := m[string(b)]; ok {
+		return s
+	}
+	s := string(b)
+	m[s] = s
+	return s
+}

@@ -1,0 +1,196 @@
+package feed
+
+import (
+	"bufio"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+)
+
+// Reader reads snapshot records from a CSV stream. Memory stays flat
+// whatever the size of the input.
+type Reader struct {
+	d    *Decoder
+	br   *bufio.Reader
+	line int
+	long []byte
+	done error // sticky final error (io.EOF, *FileError or an I/O error)
+}
+
+// NewReader returns a reader of r; name is used in errors.
+func NewReader(r io.Reader, name string) *Reader {
+	return &Reader{d: NewDecoder(name), br: bufio.NewReaderSize(r, 64<<10)}
+}
+
+// Next returns the next accepted record, or a *RowError for a rejected row
+// (call Next again to go on). At the end it returns io.EOF; a *FileError or
+// an I/O error is final.
+func (r *Reader) Next() (Record, error) {
+	for r.done == nil {
+		line, err := r.readLine()
+		switch {
+		case err == io.EOF:
+			r.done = io.EOF
+			if e := r.d.End(); e != nil {
+				return Record{}, r.keep(e)
+			}
+		case err != nil:
+			r.done = err
+		case line == nil: // longer than maxLine, skipped
+			return Record{}, r.keep(r.d.TooLong(r.line))
+		default:
+			rec, ok, err := r.d.Line(line, r.line)
+			if ok {
+				return rec, nil
+			}
+			if err != nil {
+				return Record{}, r.keep(err)
+			}
+		}
+	}
+	return Record{}, r.done
+}
+
+// keep makes a *FileError final and returns err.
+func (r *Reader) keep(err error) error {
+	var fe *FileError
+	if errors.As(err, &fe) {
+		r.done = err
+	}
+	return err
+}
+
+// readLine returns the next physical line without its '\n', or nil for a
+// line longer than maxLine (skipped whole), or io.EOF.
+func (r *Reader) readLine() ([]byte, error) {
+	line, err := r.br.ReadSlice('\n')
+	if err == nil || (err == io.EOF && len(line) > 0) {
+		r.line++
+		return trimNL(line), nil
+	}
+	if err != bufio.ErrBufferFull {
+		if err == io.EOF {
+			return nil, io.EOF
+		}
+		return nil, fmt.Errorf("%s: %w", r.d.name, err)
+	}
+	r.long = append(r.long[:0], line...)
+	tooLong := false
+	for {
+		line, err = r.br.ReadSlice('\n')
+		if !tooLong {
+			r.long = append(r.long, line...)
+			if len(r.long) > maxLine {
+				tooLong, r.long = true, r.long[:0]
+			}
+		}
+		if err == bufio.ErrBufferFull {
+			continue
+		}
+		if err != nil && err != io.EOF {
+			return nil, fmt.Errorf("%s: %w", r.d.name, err)
+		}
+		r.line++
+		if tooLong {
+			return nil, nil
+		}
+		return trimNL(r.long), nil
+	}
+}
+
+func trimNL(b []byte) []byte {
+	if n := len(b); n > 0 && b[n-1] == '\n' {
+		return b[:n-1]
+	}
+	return b
+}
+
+// Stats returns the rows counted so far.
+func (r *Reader) Stats() Stats { return r.d.Stats() }
+
+// Unknown returns the header's ignored columns.
+func (r *Reader) Unknown() []string { return r.d.Unknown() }
+
+// FileResult is what reading one file gave.
+type FileResult struct {
+	Path    string
+	Stats   Stats
+	Unknown []string // ignored columns (one warning per file)
+	Err     error    // a *FileError or I/O error: the file could not be read
+}
+
+// ReadFile reads the snapshot file at path, calling accept for each accepted
+// record and reject for each rejected row (either may be nil).
+func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResult {
+	res := FileResult{Path: path}
+	f, err := os.Open(path)
+	if err != nil {
+		res.Err = err
+		return res
+	}
+	defer f.Close()
+	r := NewReader(f, path)
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			if accept != nil {
+				accept(rec)
+			}
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			if reject != nil {
+				reject(re)
+			}
+			continue
+		}
+		if err != io.EOF {
+			res.Err = err
+		}
+		break
+	}
+	res.Stats, res.Unknown = r.Stats(), r.Unknown()
+	return res
+}
+
+// ExpandPaths turns files and folders into a sorted list of files: a folder
+// gives every *.csv file inside it, at any depth. A path that does not exist
+// is an error.
+func ExpandPaths(paths []string) ([]string, error) {
+	var out []string
+	for _, p := range paths {
+		info, err := os.Stat(p)
+		if err != nil {
+			return nil, err
+		}
+		if !info.IsDir() {
+			out = append(out, p)
+			continue
+		}
+		var found []string
+		err = filepath.WalkDir(p, func(q string, de fs.DirEntry, err error) error {
+			if err != nil {
+				return err
+			}
+			if !de.IsDir() && strings.EqualFold(filepath.Ext(q), ".csv") {
+				found = append(found, q)
+			}
+			return nil
+		})
+		if err != nil {
+			return nil, err
+		}
+		if len(found) == 0 {
+			return nil, fmt.Errorf("%s: no *.csv files in this folder", p)
+		}
+		sort.Strings(found)
+		out = append(out, found...)
+	}
+	return out, nil
+}

@@ -1,0 +1,256 @@
+package feed
+
+import (
+	"bytes"
+	"errors"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"dragdeck/model"
+)
+
+const fixtures = "../testdata/snapshots"
+
+// readAll reads a whole stream, returning accepted records, rejects and the
+// final error (nil at a clean end).
+func readAll(t testing.TB, name, data string) ([]Record, []*RowError, Stats, error) {
+	t.Helper()
+	r := NewReader(strings.NewReader(data), name)
+	var recs []Record
+	var rejects []*RowError
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			recs = append(recs, rec)
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			rejects = append(rejects, re)
+			continue
+		}
+		if err == io.EOF {
+			err = nil
+		}
+		return recs, rejects, r.Stats(), err
+	}
+}
+
+func readFixture(t *testing.T, name string) ([]Record, []*RowError, Stats) {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join(fixtures, name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	recs, rejects, st, err := readAll(t, name, string(data))
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	if st.Read != st.Accepted+st.Rejected || st.Accepted != len(recs) || st.Rejected != len(rejects) {
+		t.Fatalf("%s: stats %+v for %d accepted, %d rejected", name, st, len(recs), len(rejects))
+	}
+	return recs, rejects, st
+}
+
+// A file in pounds, metres and TAT (with a BOM, CRLF, quoting, columns in
+// another order and an unknown column) gives the same deviations as its
+// kilogram/SAT twin: the unit conversions are exact definitions and
+// SAT = TAT/(1 + 0.2 M²).
+func TestUnitTwinsAgree(t *testing.T) {
+	kg, rej1, _ := readFixture(t, "good_kg_sat.csv")
+	lb, rej2, _ := readFixture(t, "good_lb_tat.csv")
+	if len(rej1)+len(rej2) > 0 || len(kg) != 5 || len(lb) != 5 {
+		t.Fatalf("accepted %d and %d, rejected %v %v", len(kg), len(lb), rej1, rej2)
+	}
+	ty := DemoType()
+	for i := range kg {
+		a, b := model.Analyze(ty, kg[i].Snap), model.Analyze(ty, lb[i].Snap)
+		if math.Abs(a.DragDevPct-b.DragDevPct) > 1e-9 || math.Abs(a.FuelFlowDevPct-b.FuelFlowDevPct) > 1e-9 {
+			t.Errorf("row %d: deviation %.12f vs %.12f %%", i, a.DragDevPct, b.DragDevPct)
+		}
+		if !kg[i].Time.Equal(lb[i].Time) || kg[i].Tail != lb[i].Tail || kg[i].Flight != lb[i].Flight {
+			t.Errorf("row %d: identity differs: %+v vs %+v", i, kg[i], lb[i])
+		}
+	}
+	if lb[0].Line != 4 {
+		t.Errorf("first data row of the twin on line %d, want 4 (after comment, blank line, header)", lb[0].Line)
+	}
+}
+
+// Every reject reason of DESIGN.md §3.1, each on its own line of the fixture.
+func TestRejectReasons(t *testing.T) {
+	recs, rejects, st := readFixture(t, "rejects.csv")
+	want := []struct {
+		line int
+		col  string
+		kind string
+	}{
+		{4, "row", KindFields},
+		{5, "time", KindTime},
+		{6, "time", KindEmpty},
+		{7, "tail", KindEmpty},
+		{8, "weight_kg", KindNumber},
+		{9, "weight_kg", KindRange},
+		{10, "alt_ft", KindRange},
+		{11, "mach", KindRange},
+		{12, "mach", KindRange},
+		{13, "sat_c", KindRange},
+		{14, "fuel_flow_kgph", KindRange},
+		{15, "fuel_flow_kgph", KindEmpty},
+		{16, "bank_deg", KindRange},
+		{17, "mach", KindNotFinite},
+		{18, "bank_deg", KindNotFinite},
+		{19, "row", KindQuote},
+		{20, "row", KindQuote},
+	}
+	if len(rejects) != len(want) {
+		for _, r := range rejects {
+			t.Log(r)
+		}
+		t.Fatalf("%d rejects, want %d", len(rejects), len(want))
+	}
+	for i, w := range want {
+		r := rejects[i]
+		if r.Line != w.line || r.Column != w.col || r.Kind != w.kind || r.File != "rejects.csv" {
+			t.Errorf("reject %d = %v (%s), want line %d column %s kind %s", i, r, r.Kind, w.line, w.col, w.kind)
+		}
+	}
+	if len(recs) != 3 || recs[1].Flight != "flight with\na line break" || recs[1].Line != 21 || recs[2].Line != 24 {
+		t.Errorf("accepted %+v", recs)
+	}
+	if st.Read != 20 {
+		t.Errorf("read %d rows, want 20", st.Read)
+	}
+	if got := rejects[0].Error(); got != "rejects.csv:4: row: 8 fields, the header has 9" {
+		t.Errorf("message %q", got)
+	}
+}
+
+func TestFileErrors(t *testing.T) {
+	tests := []struct {
+		name, data, want string
+	}{
+		{"empty file", "", "x.csv: no header line"},
+		{"only comments", "# nothing\n\n", "x.csv: no header line"},
+		{"missing column", "time,tail,weight_kg,alt_ft,mach,sat_c\n", "x.csv:1: missing required column fuel_flow_kgph (or fuel_flow_lbph)"},
+		{"missing temperature", "time,tail,weight_kg,alt_ft,mach,fuel_flow_kgph\n", "missing required column sat_c (or tat_c)"},
+		{"two units", "time,tail,weight_kg,weight_lb,alt_ft,mach,sat_c,fuel_flow_kgph\n", "columns weight_kg and weight_lb both given"},
+		{"duplicate", "# c\ntime,tail,weight_kg,alt_ft,mach,mach,sat_c,fuel_flow_kgph\n", "x.csv:2: column mach appears twice"},
+		{"bad header quoting", "time,\"tail\"x\n", "x.csv:1: header: text after a closing quote"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, _, _, err := readAll(t, "x.csv", tc.data)
+			var fe *FileError
+			if !errors.As(err, &fe) || !strings.Contains(err.Error(), tc.want) {
+				t.Fatalf("error %v, want a FileError containing %q", err, tc.want)
+			}
+		})
+	}
+}
+
+const minHeader = "time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"
+const goodRow = "2026-03-01T10:22:00Z,DD101,65000,35000,0.78,-54.3,2380\n"
+
+func TestReaderEdges(t *testing.T) {
+	long := "2026-03-01T10:22:00Z,DD101,65000,35000,0.78,-54.3,2380" + strings.Repeat(" ", maxLine+10) + "\n"
+	tests := []struct {
+		name             string
+		data             string
+		accepted, reject int
+		rejectLine       int
+	}{
+		{"last line without newline", minHeader + strings.TrimSuffix(goodRow, "\n"), 1, 0, 0},
+		{"line over 1 MiB is rejected and reading goes on", minHeader + long + goodRow, 1, 1, 2},
+		{"open quote at the end", minHeader + goodRow + "2026-03-01T10:22:00Z,\"DD1", 1, 1, 3},
+		// After 64 KiB the open quote is given up: that row is rejected and the
+		// lines after it are read as rows again (10 stray lines, then a good one).
+		{"open quote over 64 KiB", minHeader + "x,\"" + strings.Repeat("a\n", maxRecord/2+10) + goodRow, 1, 11, 2},
+		{"CR only inside a field", minHeader + "2026-03-01T10:22:00Z,\"DD\r101\",65000,35000,0.78,-54.3,2380\r\n", 1, 0, 0},
+		{"spaces around fields", minHeader + " 2026-03-01T10:22:00Z , DD101 ,65000, 35000,0.78,-54.3, 2380 \n", 1, 0, 0},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			recs, rejects, st, err := readAll(t, "x.csv", tc.data)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(recs) != tc.accepted || len(rejects) != tc.reject || st.Read != st.Accepted+st.Rejected {
+				t.Fatalf("accepted %d rejected %d (%v), stats %+v", len(recs), len(rejects), rejects, st)
+			}
+			if tc.reject > 0 && rejects[0].Line != tc.rejectLine {
+				t.Errorf("reject on line %d, want %d: %v", rejects[0].Line, tc.rejectLine, rejects[0])
+			}
+		})
+	}
+}
+
+func TestUnknownColumns(t *testing.T) {
+	r := NewReader(strings.NewReader("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,Remarks,gear\n"+goodRow[:len(goodRow)-1]+",a,b\n"), "x.csv")
+	if _, err := r.Next(); err != nil {
+		t.Fatal(err)
+	}
+	if got := strings.Join(r.Unknown(), ","); got != "remarks,gear" {
+		t.Errorf("unknown columns %q", got)
+	}
+}
+
+func TestExpandPaths(t *testing.T) {
+	got, err := ExpandPaths([]string{fixtures})
+	if err != nil || len(got) < 3 || !strings.HasSuffix(got[0], "good_kg_sat.csv") {
+		t.Fatalf("ExpandPaths = %v, %v", got, err)
+	}
+	if _, err := ExpandPaths([]string{"no/such/dir"}); err == nil {
+		t.Error("a missing path should be an error")
+	}
+	if _, err := ExpandPaths([]string{t.TempDir()}); err == nil || !strings.Contains(err.Error(), "no *.csv") {
+		t.Errorf("empty folder: %v", err)
+	}
+}
+
+// FuzzReader: on any input the reader does not panic, and every row it
+// counts is either accepted or rejected (read = accepted + rejected). The
+// seed corpus is the fixture files in testdata/snapshots.
+func FuzzReader(f *testing.F) {
+	files, _ := filepath.Glob(filepath.Join(fixtures, "*.csv"))
+	for _, p := range files {
+		data, err := os.ReadFile(p)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(data)
+	}
+	f.Add([]byte(minHeader + goodRow))
+	f.Add([]byte("\xef\xbb\xbf" + minHeader + "\"\n\"\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		r := NewReader(bytes.NewReader(data), "fuzz.csv")
+		accepted, rejected := 0, 0
+		for {
+			_, err := r.Next()
+			if err == nil {
+				accepted++
+				continue
+			}
+			var re *RowError
+			if errors.As(err, &re) {
+				rejected++
+				if re.Line < 1 || re.Column == "" || re.Reason == "" {
+					t.Fatalf("reject without context: %+v", re)
+				}
+				continue
+			}
+			break
+		}
+		st := r.Stats()
+		if st.Read != st.Accepted+st.Rejected || st.Accepted != accepted || st.Rejected != rejected {
+			t.Fatalf("stats %+v, saw %d accepted %d rejected", st, accepted, rejected)
+		}
+		if lines := bytes.Count(data, []byte{'\n'}) + 1; st.Read > lines {
+			t.Fatalf("%d rows from %d lines", st.Read, lines)
+		}
+	})
+}
