@@ -32,7 +32,7 @@ flow is TSFC times the extra drag. Without --sat-c the ISA temperature is used.`
 	mach := fs.float("mach", "M", 0, true, "Mach number")
 	sat := fs.float("sat-c", "C", 0, false, "static air temperature, °C (default: ISA)")
 	asJSON := fs.jsonFlag()
-	if err := fs.parse(args, e.stdout); err != nil {
+	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
 	t, err := loadType(*typ)

@@ -69,9 +69,6 @@ func (f *flagSet) parse(args []string, stdout io.Writer) error {
 		}
 		return usageErrorf("%s (see 'dragdeck %s --help')", dashed(err.Error()), f.Name())
 	}
-	if f.NArg() > 0 {
-		return usageErrorf("unexpected argument %q (see 'dragdeck %s --help')", f.Arg(0), f.Name())
-	}
 	set := map[string]bool{}
 	f.Visit(func(fl *flag.Flag) { set[fl.Name] = true })
 	for _, r := range f.required {
@@ -79,7 +76,22 @@ func (f *flagSet) parse(args []string, stdout io.Writer) error {
 			return usageErrorf("--%s: missing (required; see 'dragdeck %s --help')", r, f.Name())
 		}
 	}
+	if f.NArg() > 0 {
+		return errPositional
+	}
 	return nil
+}
+
+// errPositional is returned by parse when arguments follow the flags;
+// commands that take PATH arguments accept it, others report it.
+var errPositional = errors.New("positional arguments")
+
+// noArgs turns errPositional into a usage error for commands without PATHs.
+func (f *flagSet) noArgs(err error) error {
+	if err == errPositional {
+		return usageErrorf("unexpected argument %q (see 'dragdeck %s --help')", f.Arg(0), f.Name())
+	}
+	return err
 }
 
 // flagMsg matches the flag package's bad-value message.

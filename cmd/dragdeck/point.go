@@ -66,7 +66,7 @@ parts; the excess over the baseline is given in drag counts (0.0001) and in %.`,
 	vs := fs.float("vs-fpm", "V", 0, false, "vertical speed, ft/min (climb positive)")
 	acc := fs.float("accel-kt-per-min", "A", 0, false, "rate of change of true airspeed, kt/min")
 	asJSON := fs.jsonFlag()
-	if err := fs.parse(args, e.stdout); err != nil {
+	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
 	t, err := loadType(*typ)

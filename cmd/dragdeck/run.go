@@ -38,6 +38,7 @@ func commands() []command {
 		{"point", "analyse one cruise snapshot: measured drag, split and excess", runPoint},
 		{"speed", "cruise optimum for a weight: best Mach numbers and altitudes", runSpeed},
 		{"bank", "bank-angle penalty table: load factor, drag and fuel", runBank},
+		{"check", "validate snapshot files; list every rejected row", runCheck},
 	}
 }
 

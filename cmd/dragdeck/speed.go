@@ -63,7 +63,7 @@ drag costs in speed and level against the baseline.`,
 	ci := fs.float("cost-index", "CI", 0, false, "cost index, kg of fuel per minute of time")
 	counts := fs.float("excess-counts", "N", 0, false, "excess drag added to CD0, drag counts (0.0001)")
 	asJSON := fs.jsonFlag()
-	if err := fs.parse(args, e.stdout); err != nil {
+	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
 	t, err := loadType(*typ)

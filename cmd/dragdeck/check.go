@@ -1,0 +1,94 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+
+	"dragdeck/feed"
+)
+
+func runCheck(e *env, args []string) error {
+	fs := newFlagSet("check", "dragdeck check PATH...",
+		`Validates snapshot files (or every *.csv in a folder) against DESIGN.md §3.1
+and lists every rejected row as file:line: column: reason, then the counts per
+reason. Every row is either accepted or rejected: read = accepted + rejected.
+Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
+(missing, no header, a required column missing).`,
+		"dragdeck check exports/2026-03/")
+	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
+		return helpOK(err)
+	}
+	files, err := inputFiles(fs)
+	if err != nil {
+		return err
+	}
+	byReason := map[string]int{}
+	var total feed.Stats
+	failed := 0
+	for _, path := range files {
+		res := feed.ReadFile(path, nil, func(r *feed.RowError) {
+			fmt.Fprintln(e.stdout, r)
+			byReason[r.Column+": "+r.Kind]++
+		})
+		warnUnknown(e.stderr, res)
+		if res.Err != nil {
+			fmt.Fprintf(e.stderr, "dragdeck check: %v\n", res.Err)
+			failed++
+		}
+		total.Add(res.Stats)
+	}
+	writeCheckSummary(e.stdout, len(files), failed, total, byReason)
+	switch {
+	case failed > 0:
+		return &exitErr{code: exitUsage}
+	case total.Rejected > 0:
+		return &exitErr{code: exitFindings}
+	}
+	return nil
+}
+
+func writeCheckSummary(w io.Writer, files, failed int, st feed.Stats, byReason map[string]int) {
+	fmt.Fprintf(w, "\nchecked %d file(s): %d rows read, %d accepted, %d rejected", files, st.Read, st.Accepted, st.Rejected)
+	if failed > 0 {
+		fmt.Fprintf(w, "; %d file(s) could not be read", failed)
+	}
+	fmt.Fprintln(w)
+	if len(byReason) == 0 {
+		return
+	}
+	keys := make([]string, 0, len(byReason))
+	for k := range byReason {
+		keys = append(keys, k)
+	}
+	sort.Slice(keys, func(i, j int) bool {
+		if byReason[keys[i]] != byReason[keys[j]] {
+			return byReason[keys[i]] > byReason[keys[j]]
+		}
+		return keys[i] < keys[j]
+	})
+	fmt.Fprintln(w, "rejected rows by reason:")
+	for _, k := range keys {
+		fmt.Fprintf(w, "  %7d  %s\n", byReason[k], k)
+	}
+}
+
+// warnUnknown prints one warning per file that has ignored columns.
+func warnUnknown(w io.Writer, res feed.FileResult) {
+	if len(res.Unknown) > 0 {
+		fmt.Fprintf(w, "dragdeck: %s: ignoring unknown column(s) %s\n", res.Path, strings.Join(res.Unknown, ", "))
+	}
+}
+
+// inputFiles expands the positional PATH arguments; at least one is needed.
+func inputFiles(fs *flagSet) ([]string, error) {
+	if fs.NArg() == 0 {
+		return nil, usageErrorf("give at least one snapshot file or folder (see 'dragdeck %s --help')", fs.Name())
+	}
+	files, err := feed.ExpandPaths(fs.Args())
+	if err != nil {
+		return nil, usageErrorf("%v", err)
+	}
+	return files, nil
+}

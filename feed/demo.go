@@ -1,0 +1,417 @@
+package feed
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"sort"
+	"strconv"
+	"time"
+
+	"gonum.org/v1/gonum/stat"
+
+	"dragdeck/model"
+)
+
+// The demo fleet is an invented airline flying the invented demo type. Its
+// snapshots are made through the model's own equations from a known truth:
+// a per-tail drag deviation that may drift, step, drop after a repair or sit
+// high, plus measurement noise, so that every later analysis can be checked
+// against what was put in.
+
+// DemoAirline is the invented operator of the demo fleet.
+const DemoAirline = "Kestrel Bay Air (invented)"
+
+// DemoConfig sets the size and seed of the demo fleet.
+type DemoConfig struct {
+	Tails int       // number of aircraft (default 24)
+	Days  int       // days of data (default 730)
+	Seed  uint64    // random seed (default 1)
+	Start time.Time // first day, UTC midnight (default 2025-01-01)
+}
+
+func (c DemoConfig) withDefaults() DemoConfig {
+	if c.Tails <= 0 {
+		c.Tails = 24
+	}
+	if c.Days <= 0 {
+		c.Days = 730
+	}
+	if c.Seed == 0 {
+		c.Seed = 1
+	}
+	if c.Start.IsZero() {
+		c.Start = time.Date(2025, 1, 1, 0, 0, 0, 0, time.UTC)
+	}
+	return c
+}
+
+// Flag thresholds of DESIGN.md §4.9 used to state the expected flags.
+const (
+	truthLevelPP  = 2.0 // recent level above fleet median
+	truthGrowthPP = 1.0 // drift × 180 d
+	truthStepPP   = 1.0
+	truthMargin   = 0.5 // expected levels are kept this far from the threshold
+)
+
+// Roles of demo tails.
+const (
+	RoleSteady     = "steady"
+	RoleDrift      = "drift"
+	RoleStep       = "step"
+	RoleRepair     = "repair"
+	RoleHigh       = "high"
+	RoleManoeuvres = "manoeuvres"
+)
+
+// DemoTruth is what the generator put into the demo fleet (truth.json).
+type DemoTruth struct {
+	Generator      string       `json:"generator"`
+	Airline        string       `json:"airline"`
+	Type           string       `json:"type"`
+	Seed           uint64       `json:"seed"`
+	Days           int          `json:"days"`
+	Start          string       `json:"start"`
+	End            string       `json:"end"`
+	SnapshotFile   string       `json:"snapshot_file"`
+	Rows           int          `json:"rows"`
+	Accepted       int          `json:"accepted"`
+	Rejected       int          `json:"rejected"`
+	Thresholds     truthLimits  `json:"thresholds"`
+	FleetMedianPct float64      `json:"fleet_recent_level_median_pct"`
+	Tails          []TailTruth  `json:"tails"`
+	BrokenRows     []BrokenRow  `json:"broken_rows"`
+	Traces         []TraceTruth `json:"traces"`
+	Events         []DemoEvent  `json:"events"`
+	Note           string       `json:"note"`
+}
+
+type truthLimits struct {
+	LevelPP       float64 `json:"level_pp"`
+	GrowthPPin180 float64 `json:"growth_pp_per_180d"`
+	StepPP        float64 `json:"step_pp"`
+}
+
+// TailTruth is one tail's injected drag deviation.
+type TailTruth struct {
+	Tail            string      `json:"tail"`
+	Role            string      `json:"role"`
+	OffsetPct       float64     `json:"offset_pct"`
+	DriftPctPer100d float64     `json:"drift_pct_per_100d"`
+	DriftStart      string      `json:"drift_start,omitempty"`
+	Steps           []StepTruth `json:"steps"`
+	Manoeuvres      bool        `json:"manoeuvres"`
+	RecentLevelPct  float64     `json:"recent_level_pct"`
+	ExpectedFlags   []string    `json:"expected_flags"`
+
+	driftStart time.Time
+}
+
+// StepTruth is a sudden change of a tail's drag deviation.
+type StepTruth struct {
+	Date    string  `json:"date"`
+	SizePct float64 `json:"size_pct"`
+	Cause   string  `json:"cause"`
+
+	at time.Time
+}
+
+// BrokenRow is a row written broken on purpose.
+type BrokenRow struct {
+	File   string `json:"file"`
+	Line   int    `json:"line"`
+	Column string `json:"column"`
+	Defect string `json:"defect"`
+}
+
+// TraceTruth is a per-minute trace of one whole flight.
+type TraceTruth struct {
+	File   string `json:"file"`
+	Tail   string `json:"tail"`
+	Flight string `json:"flight"`
+	Rows   int    `json:"rows"`
+}
+
+// DemoEvent is one line of the events file (DESIGN.md §3.3).
+type DemoEvent struct {
+	Time string `json:"time"`
+	Tail string `json:"tail"`
+	Kind string `json:"kind"`
+	Note string `json:"note"`
+}
+
+// deviation is the true drag deviation (%) of tail tt at time t.
+func (tt *TailTruth) deviation(t time.Time) float64 {
+	d := tt.OffsetPct
+	if tt.DriftPctPer100d != 0 && t.After(tt.driftStart) {
+		d += tt.DriftPctPer100d * t.Sub(tt.driftStart).Hours() / 24 / 100
+	}
+	for _, s := range tt.Steps {
+		if !t.Before(s.at) {
+			d += s.SizePct
+		}
+	}
+	return d
+}
+
+// demoGen holds the state of one generation.
+type demoGen struct {
+	cfg   DemoConfig
+	ty    *model.Type
+	rng   *rand.Rand
+	tails []TailTruth
+	end   time.Time
+	// optimum altitude (m) by whole tonne of weight, for choosing levels
+	optAlt map[int]float64
+}
+
+func newDemoGen(cfg DemoConfig) *demoGen {
+	cfg = cfg.withDefaults()
+	g := &demoGen{cfg: cfg, ty: DemoType(), rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
+		end: cfg.Start.AddDate(0, 0, cfg.Days), optAlt: map[int]float64{}}
+	for w := 45; w <= 80; w++ {
+		maxAlt, _ := model.MaxAltitude(g.ty, float64(w)*1000, 0, 0)
+		g.optAlt[w], _ = model.OptimumAltitude(g.ty, float64(w)*1000, 0, 0, maxAlt)
+	}
+	g.assignRoles()
+	return g
+}
+
+func (g *demoGen) uniform(lo, hi float64) float64 { return lo + (hi-lo)*g.rng.Float64() }
+
+func (g *demoGen) day(frac float64) time.Time {
+	d := int(math.Round(frac * float64(g.cfg.Days)))
+	return g.cfg.Start.AddDate(0, 0, max(1, min(d, g.cfg.Days-1)))
+}
+
+func (g *demoGen) assignRoles() {
+	n := g.cfg.Tails
+	count := func(frac float64) int { return max(1, int(math.Round(frac*float64(n)))) }
+	var roles []string
+	for _, r := range []struct {
+		role string
+		frac float64
+	}{{RoleDrift, 0.08}, {RoleStep, 0.08}, {RoleRepair, 0.04}, {RoleHigh, 0.04}, {RoleManoeuvres, 0.04}} {
+		for i := 0; i < count(r.frac) && len(roles) < n; i++ {
+			roles = append(roles, r.role)
+		}
+	}
+	for len(roles) < n {
+		roles = append(roles, RoleSteady)
+	}
+	g.rng.Shuffle(n, func(i, j int) { roles[i], roles[j] = roles[j], roles[i] })
+
+	causes := []string{"damaged door seal", "misrigged spoiler panel", "flap track fairing damage", "missing access panel seal"}
+	recentAt := g.end.AddDate(0, 0, -15) // middle of the last 30 days
+	g.tails = make([]TailTruth, n)
+	for i := range g.tails {
+		tt := &g.tails[i]
+		tt.Tail = fmt.Sprintf("DD%03d", 101+i)
+		tt.Role = roles[i]
+		tt.Steps = []StepTruth{}
+		switch tt.Role {
+		case RoleSteady:
+			tt.OffsetPct = g.uniform(-0.8, 0.8)
+		case RoleManoeuvres:
+			tt.OffsetPct = g.uniform(-0.5, 0.5)
+			tt.Manoeuvres = true
+		case RoleHigh:
+			tt.OffsetPct = g.uniform(3.2, 4.5)
+		case RoleDrift:
+			tt.OffsetPct = g.uniform(-0.5, 0.5)
+			tt.DriftPctPer100d = g.uniform(0.8, 1.4)
+			tt.driftStart = g.end.AddDate(0, 0, -int(g.uniform(200, 260)))
+			if tt.driftStart.Before(g.cfg.Start) {
+				tt.driftStart = g.cfg.Start
+			}
+			tt.DriftStart = tt.driftStart.Format(time.DateOnly)
+		case RoleStep:
+			tt.OffsetPct = g.uniform(-0.5, 0.5)
+			at := g.day(g.uniform(0.3, 0.8))
+			tt.Steps = append(tt.Steps, StepTruth{at: at, SizePct: g.uniform(2.0, 4.0), Cause: causes[g.rng.IntN(len(causes))]})
+		case RoleRepair:
+			tt.OffsetPct = g.uniform(3.5, 4.5)
+			at := g.day(g.uniform(0.35, 0.7))
+			tt.Steps = append(tt.Steps, StepTruth{at: at, SizePct: -tt.OffsetPct + g.uniform(-0.3, 0.3), Cause: "repair"})
+		}
+		for k := range tt.Steps {
+			tt.Steps[k].Date = tt.Steps[k].at.Format(time.DateOnly)
+		}
+		tt.RecentLevelPct = tt.deviation(recentAt)
+	}
+	// Expected flags by the rules of DESIGN.md §4.9, with levels kept away
+	// from the threshold so that the truth is unambiguous.
+	levels := make([]float64, n)
+	for i := range g.tails {
+		levels[i] = g.tails[i].RecentLevelPct
+	}
+	sort.Float64s(levels)
+	median := stat.Quantile(0.5, stat.Empirical, levels, nil)
+	for i := range g.tails {
+		tt := &g.tails[i]
+		limit := median + truthLevelPP
+		if d := tt.RecentLevelPct - limit; math.Abs(d) < truthMargin {
+			shift := -truthMargin - d // move below the limit by the margin
+			if tt.Role == RoleHigh {
+				shift = truthMargin - d
+			}
+			tt.OffsetPct += shift
+			tt.RecentLevelPct += shift
+		}
+		tt.ExpectedFlags = []string{}
+		if tt.RecentLevelPct >= limit {
+			tt.ExpectedFlags = append(tt.ExpectedFlags, "level")
+		}
+		if tt.DriftPctPer100d*1.8 >= truthGrowthPP {
+			tt.ExpectedFlags = append(tt.ExpectedFlags, "growth")
+		}
+		for _, s := range tt.Steps {
+			if s.SizePct >= truthStepPP {
+				tt.ExpectedFlags = append(tt.ExpectedFlags, "step")
+				break
+			}
+		}
+	}
+}
+
+// fleetMedian returns the median recent level of the truth.
+func (g *demoGen) fleetMedian() float64 {
+	levels := make([]float64, len(g.tails))
+	for i := range g.tails {
+		levels[i] = g.tails[i].RecentLevelPct
+	}
+	sort.Float64s(levels)
+	return stat.Quantile(0.5, stat.Empirical, levels, nil)
+}
+
+// demoRow is one snapshot before it is written.
+type demoRow struct {
+	t                             time.Time
+	tail, flight                  string
+	w, altFt, mach, satC, ffKgph  float64
+	bankDeg, vsFpm, accelKtPerMin float64
+}
+
+// snapshot makes the row of tail tt at time t, with cruise weight w (kg), at
+// pressure altitude altFt, Mach m and ISA deviation dev, and the manoeuvre
+// given; fuel flow follows the model with the tail's true deviation and
+// noise (sigma, as a fraction).
+func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, m, dev, bankDeg, vsFpm, acc, noise float64) demoRow {
+	h := altFt * model.Foot
+	tISA, _ := model.ISA(h)
+	air := model.AirISA(h, dev)
+	q := air.DynamicPressure(m)
+	n := model.LoadFactor(bankDeg * math.Pi / 180)
+	cl := model.LiftCoefficient(n, w, q, g.ty.WingArea)
+	cd := g.ty.CD(cl, m, 0) * (1 + tt.deviation(t)/100)
+	tas := air.TAS(m)
+	thrust := cd*q*g.ty.WingArea + w*model.G0*MPerSFromFtPerMin(vsFpm)/tas + w*MPerS2FromKtPerMin(acc)
+	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + noise)
+	return demoRow{t: t, tail: tt.Tail, flight: flight, w: w, altFt: altFt, mach: m,
+		satC: tISA + dev - model.CelsiusZero, ffKgph: ff * model.Hour, bankDeg: bankDeg, vsFpm: vsFpm, accelKtPerMin: acc}
+}
+
+// cruiseLevel returns the flight level (ft, odd thousands) at or below the
+// optimum altitude for weight w.
+func (g *demoGen) cruiseLevel(w float64) float64 {
+	opt := g.optAlt[max(45, min(80, int(math.Round(w/1000))))] / model.Foot
+	fl := math.Floor((opt-1000)/2000)*2000 + 1000
+	return max(29000, fl)
+}
+
+// isaDev is the seasonal ISA deviation (K) on day t, with weather noise.
+func (g *demoGen) isaDev(t time.Time) float64 {
+	season := 6 * math.Sin(2*math.Pi*(float64(t.YearDay())-110)/365)
+	return max(-25, min(25, season+g.rng.NormFloat64()*4))
+}
+
+// days calls fn with each day's rows in time order.
+func (g *demoGen) days(fn func([]demoRow)) {
+	var rows []demoRow
+	for d := 0; d < g.cfg.Days; d++ {
+		day := g.cfg.Start.AddDate(0, 0, d)
+		rows = rows[:0]
+		dev := g.isaDev(day)
+		for i := range g.tails {
+			tt := &g.tails[i]
+			if g.rng.Float64() < 0.04 { // in maintenance
+				continue
+			}
+			flights := 1 + g.rng.IntN(3)
+			dep := day.Add(time.Duration(5*60+g.rng.IntN(180)) * time.Minute)
+			for k := 0; k < flights; k++ {
+				flight := fmt.Sprintf("DDF%04d", 100+(i*37+k*11)%900)
+				w := g.uniform(60000, 76000)
+				alt := g.cruiseLevel(w)
+				m := math.Round(g.uniform(0.765, 0.795)*1000) / 1000
+				bias := g.rng.NormFloat64() * 0.004 // per-flight instrument bias
+				fdev := dev + g.rng.NormFloat64()*1.5
+				t := dep.Add(25 * time.Minute)
+				snaps := 1 + g.rng.IntN(3)
+				for s := 0; s < snaps; s++ {
+					var bank, vs, acc float64
+					if tt.Manoeuvres && g.rng.Float64() < 0.4 {
+						switch g.rng.IntN(3) {
+						case 0:
+							bank = g.uniform(8, 28) * float64(1-2*g.rng.IntN(2))
+						case 1:
+							vs = g.uniform(300, 1200) * float64(1-2*g.rng.IntN(2))
+						default:
+							acc = g.uniform(1, 3) * float64(1-2*g.rng.IntN(2))
+						}
+					}
+					r := g.snapshot(tt, t, flight, w, alt, m, fdev, bank, vs, acc, bias+g.rng.NormFloat64()*0.006)
+					rows = append(rows, r)
+					t = t.Add(time.Duration(15+g.rng.IntN(15)) * time.Minute)
+					w -= r.ffKgph * 0.4 // about 25 min of burn
+				}
+				dep = dep.Add(time.Duration(200+g.rng.IntN(90)) * time.Minute)
+			}
+		}
+		sort.SliceStable(rows, func(a, b int) bool { return rows[a].t.Before(rows[b].t) })
+		fn(rows)
+	}
+}
+
+// snapshotHeader is the column layout the demo writes.
+const snapshotHeader = "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,bank_deg,vs_fpm,accel_kt_per_min\n"
+
+func appendRow(b []byte, r demoRow) []byte {
+	b = r.t.AppendFormat(b, time.RFC3339)
+	b = append(b, ',')
+	b = append(b, r.tail...)
+	b = append(b, ',')
+	b = append(b, r.flight...)
+	for _, f := range []struct {
+		v    float64
+		prec int
+	}{{r.w, 0}, {r.altFt, 0}, {r.mach, 3}, {r.satC, 1}, {r.ffKgph, 0}, {r.bankDeg, 1}, {r.vsFpm, 0}, {r.accelKtPerMin, 2}} {
+		b = append(b, ',')
+		b = strconv.AppendFloat(b, f.v, 'f', f.prec, 64)
+	}
+	return append(b, '\n')
+}
+
+// brokenKinds are the defects written into the demo file, one per broken
+// row in turn, with the column the reader must name.
+var brokenKinds = []struct {
+	column, defect string
+	spoil          func(line []byte) []byte
+}{
+	{"row", "a field missing", func(l []byte) []byte { return append(l[:bytes.LastIndexByte(l, ',')], '\n') }},
+	{"mach", "Mach written as text", func(l []byte) []byte { return replaceField(l, 5, "M.78") }},
+	{"weight_kg", "negative weight", func(l []byte) []byte { return replaceField(l, 3, "-64000") }},
+	{"mach", "Mach above 1", func(l []byte) []byte { return replaceField(l, 5, "1.78") }},
+	{"fuel_flow_kgph", "fuel flow empty", func(l []byte) []byte { return replaceField(l, 7, "") }},
+	{"bank_deg", "bank of 95 degrees", func(l []byte) []byte { return replaceField(l, 8, "95") }},
+	{"alt_ft", "altitude 70,000 ft", func(l []byte) []byte { return replaceField(l, 4, "70000") }},
+	{"time", "time without zone", func(l []byte) []byte { return replaceField(l, 0, "2025-13-01 10:00") }},
+}
+
+// replaceField returns line (ending in '\n') with field i replaced by v.
+func replaceField(line []byte, i int, v string) []byte {
+	fields := bytes.Split(bytes.TrimSuffix(line, []byte{'\n'}), []byte{','})
+	fields[i] = []byte(v)
+	return append(bytes.Join(fields, []byte{','}), '\n')
+}

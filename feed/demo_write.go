@@ -1,0 +1,270 @@
+package feed
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"time"
+
+	"dragdeck/model"
+)
+
+// Names of the files WriteDemo writes inside its folder.
+const (
+	DemoSnapshotFile = "snapshots.csv"
+	DemoTypeFile     = "type.toml"
+	DemoEventsFile   = "events.csv"
+	DemoTruthFile    = "truth.json"
+	DemoTraceDir     = "traces"
+)
+
+// writeSnapshots writes the fleet's snapshot CSV to w, with broken rows
+// inserted among the good ones, and fills in the truth's counts.
+func (g *demoGen) writeSnapshots(w io.Writer, truth *DemoTruth) error {
+	bw := bufio.NewWriterSize(w, 256<<10)
+	fmt.Fprintf(bw, "# dragdeck demo fleet of %s, type %s\n", DemoAirline, g.ty.Name)
+	fmt.Fprintf(bw, "# invented data made by 'dragdeck demo' (seed %d); not flight data of any real aircraft\n", g.cfg.Seed)
+	bw.WriteString(snapshotHeader)
+	line := 3
+	expected := float64(g.cfg.Tails*g.cfg.Days) * 3.8
+	nBroken := max(8, int(expected/20000))
+	interval := max(1, int(expected)/(nBroken+1))
+	var buf []byte
+	good, broken := 0, 0
+	g.days(func(rows []demoRow) {
+		for _, r := range rows {
+			buf = appendRow(buf[:0], r)
+			bw.Write(buf)
+			line++
+			good++
+			if good%interval == 0 && broken < nBroken {
+				k := brokenKinds[broken%len(brokenKinds)]
+				bw.Write(k.spoil(append([]byte(nil), buf...)))
+				line++
+				broken++
+				truth.BrokenRows = append(truth.BrokenRows, BrokenRow{File: DemoSnapshotFile, Line: line, Column: k.column, Defect: k.defect})
+			}
+		}
+	})
+	truth.Rows, truth.Accepted, truth.Rejected = good+broken, good, broken
+	return bw.Flush()
+}
+
+// events returns the maintenance events of the demo fleet: each repair, and
+// some washes that change nothing.
+func (g *demoGen) events() []DemoEvent {
+	var ev []DemoEvent
+	for i := range g.tails {
+		tt := &g.tails[i]
+		for _, s := range tt.Steps {
+			if s.Cause == "repair" {
+				ev = append(ev, DemoEvent{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
+					Kind: "repair", Note: "door seal replaced, spoiler rigging checked"})
+			}
+		}
+		if tt.Role == RoleSteady && i%4 == 0 {
+			at := g.day(0.5 + 0.1*float64(i%3)).Add(-4 * time.Hour)
+			ev = append(ev, DemoEvent{Time: at.Format(time.RFC3339), Tail: tt.Tail, Kind: "wash", Note: "exterior wash"})
+		}
+	}
+	sort.SliceStable(ev, func(a, b int) bool { return ev[a].Time < ev[b].Time })
+	return ev
+}
+
+func writeEvents(w io.Writer, ev []DemoEvent) error {
+	bw := bufio.NewWriter(w)
+	bw.WriteString("# maintenance events of the invented demo fleet\ntime,tail,kind,note\n")
+	for _, e := range ev {
+		fmt.Fprintf(bw, "%s,%s,%s,%q\n", e.Time, e.Tail, e.Kind, e.Note)
+	}
+	return bw.Flush()
+}
+
+// trace returns the per-minute rows of one whole flight of tail tt leaving
+// at dep: climb from FL100 to cruise, a step climb, two turns, until top of
+// descent.
+func (g *demoGen) trace(tt *TailTruth, flight string, dep time.Time) []demoRow {
+	w := 72000.0
+	cruise := g.cruiseLevel(w) - 2000
+	dev := g.isaDev(dep)
+	const cruiseMach = 0.78
+	alt, m := 10000.0, 0.60
+	var rows []demoRow
+	t := dep.Add(8 * time.Minute)
+	tasOf := func(altFt, mach float64) float64 {
+		return model.AirISA(altFt*model.Foot, dev).TAS(mach) / model.Knot
+	}
+	step := func(vs, bank, nextMach float64) {
+		acc := tasOf(alt+vs, nextMach) - tasOf(alt, m) // kt per minute
+		r := g.snapshot(tt, t, flight, w, math.Round(alt), m, dev, bank, vs, acc, g.rng.NormFloat64()*0.004)
+		rows = append(rows, r)
+		w -= r.ffKgph / 60
+		alt += vs
+		m = nextMach
+		t = t.Add(time.Minute)
+	}
+	for alt < cruise { // climb: 2,500 ft/min falling to 1,000 ft/min
+		vs := math.Round(2500 - 1500*(alt-10000)/(cruise-10000))
+		vs = min(vs, cruise-alt)
+		step(vs, 0, math.Min(cruiseMach, m+0.008))
+	}
+	for i := 0; i < 95; i++ {
+		vs, bank := 0.0, 0.0
+		switch {
+		case i >= 20 && i < 23:
+			bank = 20
+		case i >= 45 && i < 47:
+			vs = 1000 // step climb to the next level
+		case i >= 70 && i < 72:
+			bank = -25
+		}
+		step(vs, bank, cruiseMach)
+	}
+	return rows
+}
+
+// writeTrace writes one trace file.
+func writeTrace(path string, rows []demoRow) error {
+	var b bytes.Buffer
+	b.WriteString("# per-minute trace of one whole flight of the invented demo fleet\n")
+	b.WriteString(snapshotHeader)
+	var buf []byte
+	for _, r := range rows {
+		buf = appendRow(buf[:0], r)
+		b.Write(buf)
+	}
+	return os.WriteFile(path, b.Bytes(), 0o644)
+}
+
+// newTruth starts the truth record of a generation.
+func (g *demoGen) newTruth() DemoTruth {
+	return DemoTruth{
+		Generator:      "dragdeck demo",
+		Airline:        DemoAirline,
+		Type:           g.ty.Name,
+		Seed:           g.cfg.Seed,
+		Days:           g.cfg.Days,
+		Start:          g.cfg.Start.Format(time.DateOnly),
+		End:            g.end.Format(time.DateOnly),
+		SnapshotFile:   DemoSnapshotFile,
+		Thresholds:     truthLimits{LevelPP: truthLevelPP, GrowthPPin180: truthGrowthPP, StepPP: truthStepPP},
+		FleetMedianPct: g.fleetMedian(),
+		Tails:          g.tails,
+		BrokenRows:     []BrokenRow{},
+		Traces:         []TraceTruth{},
+		Note: "Invented data. Deviations are drag deviation % from the baseline polar; expected_flags follow " +
+			"DESIGN.md §4.9 with the thresholds above and the fleet median recent level.",
+	}
+}
+
+// WriteDemo writes the demo fleet into dir (created if needed): the snapshot
+// CSV, the type file, the events file, per-minute traces of a few flights
+// and truth.json. The same config gives the same bytes.
+func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
+	g := newDemoGen(cfg)
+	truth := g.newTruth()
+	if err := os.MkdirAll(filepath.Join(dir, DemoTraceDir), 0o755); err != nil {
+		return truth, err
+	}
+	f, err := os.Create(filepath.Join(dir, DemoSnapshotFile))
+	if err != nil {
+		return truth, err
+	}
+	if err := g.writeSnapshots(f, &truth); err != nil {
+		f.Close()
+		return truth, err
+	}
+	if err := f.Close(); err != nil {
+		return truth, err
+	}
+	if err := os.WriteFile(filepath.Join(dir, DemoTypeFile), DemoTypeTOML(), 0o644); err != nil {
+		return truth, err
+	}
+	truth.Events = g.events()
+	var ev bytes.Buffer
+	writeEvents(&ev, truth.Events)
+	if err := os.WriteFile(filepath.Join(dir, DemoEventsFile), ev.Bytes(), 0o644); err != nil {
+		return truth, err
+	}
+	for _, tr := range g.traceTails() {
+		rows := g.trace(tr.tt, tr.flight, tr.dep)
+		name := fmt.Sprintf("%s-%s-%s.csv", tr.tt.Tail, tr.flight, tr.dep.Format("20060102"))
+		if err := writeTrace(filepath.Join(dir, DemoTraceDir, name), rows); err != nil {
+			return truth, err
+		}
+		truth.Traces = append(truth.Traces, TraceTruth{File: filepath.Join(DemoTraceDir, name), Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
+	}
+	js, err := json.MarshalIndent(truth, "", "  ")
+	if err != nil {
+		return truth, err
+	}
+	return truth, os.WriteFile(filepath.Join(dir, DemoTruthFile), append(js, '\n'), 0o644)
+}
+
+type traceChoice struct {
+	tt     *TailTruth
+	flight string
+	dep    time.Time
+}
+
+// traceTails picks up to three tails for whole-flight traces: one that
+// drifts, one that manoeuvres, one that stepped, on recent days.
+func (g *demoGen) traceTails() []traceChoice {
+	var out []traceChoice
+	for _, role := range []string{RoleDrift, RoleManoeuvres, RoleStep} {
+		for i := range g.tails {
+			if g.tails[i].Role == role {
+				dep := g.end.AddDate(0, 0, -1-len(out)).Add(14 * time.Hour)
+				out = append(out, traceChoice{&g.tails[i], fmt.Sprintf("DDF%04d", 900+len(out)), dep})
+				break
+			}
+		}
+	}
+	return out
+}
+
+// DemoFleet is the demo fleet in memory, as the dashboard shows it.
+type DemoFleet struct {
+	Records []Record
+	Rejects []*RowError
+	Stats   Stats
+	Truth   DemoTruth
+}
+
+// NewDemoFleet makes the demo fleet in memory: the same snapshot bytes that
+// WriteDemo writes, read back through the CSV reader so that the rejects are
+// the same too.
+func NewDemoFleet(cfg DemoConfig) (*DemoFleet, error) {
+	g := newDemoGen(cfg)
+	d := &DemoFleet{Truth: g.newTruth()}
+	var buf bytes.Buffer
+	if err := g.writeSnapshots(&buf, &d.Truth); err != nil {
+		return nil, err
+	}
+	d.Truth.Events = g.events()
+	r := NewReader(&buf, "demo:"+DemoSnapshotFile)
+	d.Records = make([]Record, 0, d.Truth.Accepted)
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			d.Records = append(d.Records, rec)
+			continue
+		}
+		if re, ok := err.(*RowError); ok {
+			d.Rejects = append(d.Rejects, re)
+			continue
+		}
+		if err != io.EOF {
+			return nil, err
+		}
+		break
+	}
+	d.Stats = r.Stats()
+	return d, nil
+}
