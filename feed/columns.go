@@ -68,6 +68,11 @@ type header struct {
 	unknown []string           // columns that are ignored
 }
 
+// eventsHeader is parseHeader's answer for the header of an events file
+// (time,tail,kind,note; DESIGN.md §3.3), which a folder may hold beside the
+// snapshots.
+const eventsHeader = "an events file (time, tail, kind, note), not snapshots"
+
 // parseHeader builds the layout from the header fields.
 func parseHeader(fields [][]byte) (*header, string) {
 	h := &header{n: len(fields)}
@@ -90,6 +95,9 @@ func parseHeader(fields [][]byte) (*header, string) {
 			return nil, "columns " + h.name[c] + " and " + name + " both given; keep one"
 		}
 		h.idx[c], h.name[c] = i, name
+	}
+	if h.idx[colWeight] < 0 && seen["kind"] && seen["note"] && h.idx[colTime] >= 0 && h.idx[colTail] >= 0 {
+		return nil, eventsHeader
 	}
 	for _, r := range requiredColumns {
 		if h.idx[r.col] < 0 {

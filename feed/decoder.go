@@ -198,7 +198,7 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 	if d.hdr == nil {
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
-			return Record{}, false, &FileError{File: d.name, Line: n, Reason: msg}
+			return Record{}, false, &FileError{File: d.name, Line: n, Reason: msg, Events: msg == eventsHeader}
 		}
 		d.hdr = h
 		return Record{}, false, nil

@@ -17,7 +17,7 @@ import (
 
 // Names of the files WriteDemo writes inside its folder.
 const (
-	DemoSnapshotFile = "snapshots.csv"
+	DemoSnapshotFile = "snapshots/fleet.csv"
 	DemoTypeFile     = "type.toml"
 	DemoEventsFile   = "events.csv"
 	DemoTruthFile    = "truth.json"
@@ -169,8 +169,10 @@ func (g *demoGen) newTruth() DemoTruth {
 func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
 	g := newDemoGen(cfg)
 	truth := g.newTruth()
-	if err := os.MkdirAll(filepath.Join(dir, DemoTraceDir), 0o755); err != nil {
-		return truth, err
+	for _, sub := range []string{DemoTraceDir, filepath.Dir(DemoSnapshotFile)} {
+		if err := os.MkdirAll(filepath.Join(dir, sub), 0o755); err != nil {
+			return truth, err
+		}
 	}
 	f, err := os.Create(filepath.Join(dir, DemoSnapshotFile))
 	if err != nil {
@@ -198,7 +200,7 @@ func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
 		if err := writeTrace(filepath.Join(dir, DemoTraceDir, name), rows); err != nil {
 			return truth, err
 		}
-		truth.Traces = append(truth.Traces, TraceTruth{File: filepath.Join(DemoTraceDir, name), Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
+		truth.Traces = append(truth.Traces, TraceTruth{File: DemoTraceDir + "/" + name, Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
 	}
 	js, err := json.MarshalIndent(truth, "", "  ")
 	if err != nil {

@@ -122,6 +122,7 @@ type FileResult struct {
 	Stats   Stats
 	Unknown []string // ignored columns (one warning per file)
 	Err     error    // a *FileError or I/O error: the file could not be read
+	Events  bool     // an events file, skipped (not an error)
 }
 
 // ReadFile reads the snapshot file at path, calling accept for each accepted
@@ -150,7 +151,10 @@ func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResu
 			}
 			continue
 		}
-		if err != io.EOF {
+		var fe *FileError
+		if errors.As(err, &fe) && fe.Events {
+			res.Events = true
+		} else if err != io.EOF {
 			res.Err = err
 		}
 		break

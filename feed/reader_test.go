@@ -254,3 +254,14 @@ func FuzzReader(f *testing.F) {
 		}
 	})
 }
+
+// An events file (DESIGN.md §3.3) beside the snapshots is recognised and
+// skipped, not reported as a broken snapshot file.
+func TestEventsFileIsSkipped(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "events.csv")
+	os.WriteFile(p, []byte("# events\ntime,tail,kind,note\n2026-01-01T00:00:00Z,DD101,wash,\"exterior wash\"\n"), 0o644)
+	res := ReadFile(p, nil, nil)
+	if !res.Events || res.Err != nil || res.Stats.Read != 0 {
+		t.Errorf("events file: %+v", res)
+	}
+}

@@ -37,6 +37,7 @@ type FileError struct {
 	File   string
 	Line   int // 0 when the error is not on one line
 	Reason string
+	Events bool // the file is an events file: skip it, it is not broken
 }
 
 func (e *FileError) Error() string {

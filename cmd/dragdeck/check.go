@@ -33,6 +33,10 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 			byReason[r.Column+": "+r.Kind]++
 		})
 		warnUnknown(e.stderr, res)
+		if res.Events {
+			fmt.Fprintf(e.stderr, "dragdeck check: %s: an events file, skipped\n", path)
+			continue
+		}
 		if res.Err != nil {
 			fmt.Fprintf(e.stderr, "dragdeck check: %v\n", res.Err)
 			failed++

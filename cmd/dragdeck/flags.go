@@ -115,8 +115,11 @@ func dashed(msg string) string {
 
 func (f *flagSet) printHelp(w io.Writer) {
 	var b strings.Builder
-	fmt.Fprintf(&b, "usage: %s\n\n%s\n\nflags:\n", f.usage, strings.TrimSpace(f.about))
+	fmt.Fprintf(&b, "usage: %s\n\n%s\n", f.usage, strings.TrimSpace(f.about))
+	heading := "\nflags:\n"
 	f.VisitAll(func(fl *flag.Flag) {
+		b.WriteString(heading)
+		heading = ""
 		left := "--" + fl.Name
 		if p := f.argNames[fl.Name]; p != "" {
 			left += " " + p

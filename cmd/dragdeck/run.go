@@ -39,6 +39,7 @@ func commands() []command {
 		{"speed", "cruise optimum for a weight: best Mach numbers and altitudes", runSpeed},
 		{"bank", "bank-angle penalty table: load factor, drag and fuel", runBank},
 		{"check", "validate snapshot files; list every rejected row", runCheck},
+		{"demo", "write the invented demo fleet, its type file and its truth", runDemo},
 	}
 }
 
