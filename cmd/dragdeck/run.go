@@ -39,6 +39,8 @@ func commands() []command {
 		{"speed", "cruise optimum for a weight: best Mach numbers and altitudes", runSpeed},
 		{"bank", "bank-angle penalty table: load factor, drag and fuel", runBank},
 		{"check", "validate snapshot files; list every rejected row", runCheck},
+		{"replay", "play snapshots in time order, analysed, at a chosen speed", runReplay},
+		{"follow", "watch a growing snapshot file; analyse rows as they arrive", runFollow},
 		{"demo", "write the invented demo fleet, its type file and its truth", runDemo},
 	}
 }

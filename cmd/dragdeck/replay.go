@@ -1,0 +1,89 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"dragdeck/feed"
+)
+
+func runReplay(e *env, args []string) error {
+	fs := newFlagSet("replay", "dragdeck replay [--type FILE] [--speed X] [--tail ID] [--flight ID] [--max-wait D] PATH...",
+		`Plays the snapshots of one or more files (or folders of *.csv) in time order,
+paced at X times real time, and analyses each one. --speed 0 plays without
+waiting. Long gaps (between flights, overnight) are shortened to --max-wait.
+When stdout is not a terminal, each snapshot is one JSON object per line: time,
+tail, flight and the fields of 'dragdeck point --json'. Rejected rows go to
+stderr.`,
+		"dragdeck replay --tail DD101 --speed 0 fleet/snapshots/ | jq .excess_drag_counts")
+	typ := fs.typeFlag()
+	speed := fs.float("speed", "X", 60, false, "times real time; 0 plays without waiting")
+	tail := fs.str("tail", "ID", "", "only this tail")
+	flight := fs.str("flight", "ID", "", "only this flight")
+	maxWait := fs.Duration("max-wait", 5*time.Second, "longest wait between two snapshots")
+	fs.argNames["max-wait"] = "D"
+	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
+		return helpOK(err)
+	}
+	if math.IsNaN(*speed) || math.IsInf(*speed, 0) || *speed < 0 {
+		return usageErrorf("--speed: must be ≥ 0, got %g", *speed)
+	}
+	t, err := loadType(*typ)
+	if err != nil {
+		return err
+	}
+	files, err := inputFiles(fs)
+	if err != nil {
+		return err
+	}
+	recs, results := feed.LoadReplay(files, feed.ReplayFilter{Tail: *tail, Flight: *flight}, printReject(e.stderr))
+	var st feed.Stats
+	for _, res := range results {
+		warnUnknown(e.stderr, res)
+		if res.Err != nil {
+			return usageErrorf("%v", res.Err)
+		}
+		st.Add(res.Stats)
+	}
+	if len(recs) == 0 {
+		fmt.Fprintf(e.stderr, "dragdeck replay: no snapshots to play (%d rows read, %d accepted, none matching --tail %q --flight %q)\n",
+			st.Read, st.Accepted, *tail, *flight)
+		return nil
+	}
+	p := feed.NewPlayer(recs, *speed)
+	p.MaxWait = *maxWait
+	sw := newSnapshotWriter(e.stdout, t)
+	if err := p.Run(e.ctx, feed.RealClock{}, sw.write); err != nil && e.ctx.Err() == nil {
+		return err
+	}
+	fmt.Fprintf(e.stderr, "dragdeck replay: %d snapshots played; %d rows read, %d rejected\n", p.Pos(), st.Read, st.Rejected)
+	return nil
+}
+
+func runFollow(e *env, args []string) error {
+	fs := newFlagSet("follow", "dragdeck follow [--type FILE] FILE",
+		`Watches a snapshot file that another system is still writing: reads the rows
+already there, then each new row as soon as its line is complete. A truncated
+file starts over, a replaced (rotated) file is reopened, a deleted file is
+waited for; each such event is noted on stderr. When stdout is not a terminal,
+each snapshot is one JSON object per line, as for replay. Stop with Ctrl-C.`,
+		"dragdeck follow /data/live/snapshots.csv")
+	typ := fs.typeFlag()
+	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
+		return helpOK(err)
+	}
+	if fs.NArg() != 1 {
+		return usageErrorf("give exactly one FILE to follow (see 'dragdeck follow --help')")
+	}
+	t, err := loadType(*typ)
+	if err != nil {
+		return err
+	}
+	sw := newSnapshotWriter(e.stdout, t)
+	fl := &feed.Follower{Path: fs.Arg(0), Notice: func(s string) { fmt.Fprintf(e.stderr, "dragdeck follow: %s\n", s) }}
+	if err := fl.Run(e.ctx, sw.write, printReject(e.stderr)); err != nil {
+		return usageErrorf("%v", err)
+	}
+	return nil
+}
