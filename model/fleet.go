@@ -1,0 +1,114 @@
+package model
+
+import (
+	"math"
+	"sort"
+)
+
+// Flag names (DESIGN.md §4.9).
+const (
+	FlagLevel  = "level"  // recent level well above the fleet's
+	FlagGrowth = "growth" // drift over the trailing window
+	FlagStep   = "step"   // a sudden increase that is still there
+)
+
+// TailAssessment is a tail's trend with its flags and cost.
+type TailAssessment struct {
+	TailTrend
+	Flags        []string
+	Improvements []Step  // significant decreases of at least StepPP
+	ExcessFuel   float64 // kg per year: recent level × expected fuel flow × cruise hours
+	CO2          float64 // kg per year, 3.16 × ExcessFuel (ICAO)
+	Money        float64 // ExcessFuel × fuel price; 0 without a price
+}
+
+// Fleet is the assessment of all tails, most severe first.
+type Fleet struct {
+	Tails           []TailAssessment
+	MedianRecentPct float64 // median of the tails' recent levels; NaN if none
+	Flagged         int
+}
+
+// AssessFleet flags each tail (DESIGN.md §4.9) and prices its excess
+// (§4.10):
+//
+//	level  — recent level ≥ fleet median recent level + LevelPP;
+//	growth — drift × DriftDays ≥ GrowthPP and the drift's 95 % interval excludes zero;
+//	step   — an increase ≥ StepPP that a later decrease of at least half its size has not undone.
+//
+// Decreases are reported as improvements, never flagged. Excess fuel per
+// year = recent level/100 × median expected fuel flow × CruiseHours;
+// CO2 = 3.16 kg per kg of fuel (ICAO).
+func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
+	var levels []float64
+	for _, t := range trends {
+		if !math.IsNaN(t.RecentPct) {
+			levels = append(levels, t.RecentPct)
+		}
+	}
+	f := Fleet{MedianRecentPct: median(levels)}
+	for _, t := range trends {
+		a := TailAssessment{TailTrend: t, Flags: []string{}}
+		if !math.IsNaN(t.RecentPct) && !math.IsNaN(f.MedianRecentPct) && t.RecentPct >= f.MedianRecentPct+c.LevelPP {
+			a.Flags = append(a.Flags, FlagLevel)
+		}
+		if d := t.Drift; !math.IsNaN(d.Slope) && d.Slope*c.DriftDays/100 >= c.GrowthPP && d.Lo > 0 {
+			a.Flags = append(a.Flags, FlagGrowth)
+		}
+		for i, s := range t.Steps {
+			if s.SizePct <= -c.StepPP {
+				a.Improvements = append(a.Improvements, s)
+			}
+			if s.SizePct < c.StepPP || undone(s, t.Steps[i+1:]) {
+				continue
+			}
+			if len(a.Flags) == 0 || a.Flags[len(a.Flags)-1] != FlagStep {
+				a.Flags = append(a.Flags, FlagStep)
+			}
+		}
+		if !math.IsNaN(t.RecentPct) && !math.IsNaN(t.FuelFlowExpected) {
+			a.ExcessFuel = t.RecentPct / 100 * t.FuelFlowExpected * Hour * c.CruiseHours
+			a.CO2 = CO2PerFuel * a.ExcessFuel
+			a.Money = a.ExcessFuel * c.FuelPrice
+		}
+		if len(a.Flags) > 0 {
+			f.Flagged++
+		}
+		f.Tails = append(f.Tails, a)
+	}
+	sort.SliceStable(f.Tails, func(i, j int) bool { return severer(&f.Tails[i], &f.Tails[j]) })
+	return f
+}
+
+// undone reports whether a later decrease took back at least half of s.
+func undone(s Step, later []Step) bool {
+	for _, l := range later {
+		if l.SizePct <= -0.5*s.SizePct {
+			return true
+		}
+	}
+	return false
+}
+
+// severer orders tails: more flags first, then more excess fuel, then a
+// higher recent level, then by name.
+func severer(a, b *TailAssessment) bool {
+	if len(a.Flags) != len(b.Flags) {
+		return len(a.Flags) > len(b.Flags)
+	}
+	if a.ExcessFuel != b.ExcessFuel {
+		return a.ExcessFuel > b.ExcessFuel
+	}
+	ar, br := nanLow(a.RecentPct), nanLow(b.RecentPct)
+	if ar != br {
+		return ar > br
+	}
+	return a.Tail < b.Tail
+}
+
+func nanLow(v float64) float64 {
+	if math.IsNaN(v) {
+		return math.Inf(-1)
+	}
+	return v
+}

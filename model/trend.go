@@ -1,0 +1,291 @@
+package model
+
+import (
+	"math"
+	"sort"
+	"time"
+)
+
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it.
+type TrendPoint struct {
+	Time             time.Time
+	Flight           string
+	DevPct           float64 // drag deviation, % of baseline drag
+	FuelFlowExpected float64 // kg/s on the baseline polar
+	Bank             float64 // rad
+	VS               float64 // m/s
+	Accel            float64 // m/s²
+}
+
+// Event is a maintenance or other event of a tail (DESIGN.md §3.3).
+type Event struct {
+	Time time.Time
+	Kind string
+	Note string
+}
+
+// TrendConfig holds the windows, limits and thresholds of the trend and the
+// flags (DESIGN.md §4.8–§4.10). DefaultTrendConfig gives the defaults.
+type TrendConfig struct {
+	RecentDays   float64 // window of the recent level (30)
+	DriftDays    float64 // trailing window of the drift (180)
+	MinDriftDays float64 // shortest window for a drift (60)
+	FlightGap    float64 // hours between snapshots that start a new flight (6)
+
+	MaxAbsDevPct float64 // implausible beyond (25 %)
+	MaxBank      float64 // rad (30°)
+	MaxVS        float64 // m/s (1,500 ft/min)
+	MaxAccel     float64 // m/s² (5 kt/min)
+
+	MinSegment     int     // fewest flights between two steps (20)
+	PenaltyFactor  float64 // split penalty = factor · σ² · ln n (8)
+	StepZ          float64 // a step is significant when |size| / SE ≥ this (4)
+	MinStepPct     float64 // smallest step reported (0.5 pp)
+	EventMatchDays float64 // an event this close to a step is shown beside it (7)
+
+	LevelPP  float64 // flag level: recent ≥ fleet median + this (2.0 pp)
+	GrowthPP float64 // flag growth: drift × DriftDays ≥ this (1.0 pp)
+	StepPP   float64 // flag step: an increase ≥ this (1.0 pp)
+
+	CruiseHours float64 // per year, for the cost (2,500 h)
+	FuelPrice   float64 // per kg of fuel, for the cost (0: no money figure)
+}
+
+// DefaultTrendConfig returns the defaults of DESIGN.md §4.8–§4.10.
+func DefaultTrendConfig() TrendConfig {
+	return TrendConfig{
+		RecentDays: 30, DriftDays: 180, MinDriftDays: 60, FlightGap: 6,
+		MaxAbsDevPct: 25, MaxBank: 30 * math.Pi / 180, MaxVS: 1500 * Foot / Minute, MaxAccel: 5 * Knot / Minute,
+		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7,
+		LevelPP: 2, GrowthPP: 1, StepPP: 1,
+		CruiseHours: 2500,
+	}
+}
+
+// Reasons a point is not usable for the trend.
+const (
+	ExcludeImplausible = "deviation beyond the plausible limit"
+	ExcludeBank        = "bank beyond the limit"
+	ExcludeVS          = "vertical speed beyond the limit"
+	ExcludeAccel       = "acceleration beyond the limit"
+)
+
+// Usable reports why p cannot be used for the trend, or "" when it can:
+// |deviation| above MaxAbsDevPct, or bank, vertical speed or acceleration
+// beyond their limits (within them the energy method corrects for them).
+func (c *TrendConfig) Usable(p TrendPoint) string {
+	switch {
+	case math.IsNaN(p.DevPct) || math.Abs(p.DevPct) > c.MaxAbsDevPct:
+		return ExcludeImplausible
+	case math.Abs(p.Bank) > c.MaxBank:
+		return ExcludeBank
+	case math.Abs(p.VS) > c.MaxVS:
+		return ExcludeVS
+	case math.Abs(p.Accel) > c.MaxAccel:
+		return ExcludeAccel
+	}
+	return ""
+}
+
+// FlightPoint is the median deviation of one flight.
+type FlightPoint struct {
+	Time   time.Time // first snapshot of the flight
+	Flight string
+	DevPct float64
+	N      int // snapshots
+}
+
+// Step is a sudden change of a tail's deviation.
+type Step struct {
+	Time    time.Time // the first flight after the change
+	SizePct float64   // pp, positive = more drag
+	SE      float64   // standard error of the size, pp
+	Event   *Event    // an event at or near the step, if any
+}
+
+// TailTrend is the trend of one tail (DESIGN.md §4.8).
+type TailTrend struct {
+	Tail        string
+	Points      int            // usable snapshots
+	Excluded    map[string]int // snapshots left out, by reason
+	First, Last time.Time
+
+	Flights []FlightPoint
+
+	RecentPct float64 // median of the per-flight deviations of the last RecentDays; NaN if none
+
+	Drift              Slope // pp per 100 days over the drift window; NaN if too short
+	DriftFrom, DriftTo time.Time
+	Steps              []Step  // significant changes, increases and decreases, in time order
+	Segments           []Line  // the fitted line of each run between boundaries (x in days since First)
+	FuelFlowExpected   float64 // median expected fuel flow, kg/s
+	Events             []Event
+}
+
+// days is t in days since base.
+func days(t, base time.Time) float64 { return t.Sub(base).Hours() / 24 }
+
+// Flights groups time-ordered usable points into flights: a new flight
+// starts when the flight name changes or the gap exceeds gapHours; each
+// flight's deviation is the median of its snapshots.
+func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
+	var out []FlightPoint
+	var devs []float64
+	start := 0
+	flush := func(end int) {
+		if end <= start {
+			return
+		}
+		devs = devs[:0]
+		for _, p := range pts[start:end] {
+			devs = append(devs, p.DevPct)
+		}
+		out = append(out, FlightPoint{Time: pts[start].Time, Flight: pts[start].Flight, DevPct: median(devs), N: end - start})
+	}
+	for i := 1; i <= len(pts); i++ {
+		if i == len(pts) || pts[i].Flight != pts[i-1].Flight || pts[i].Time.Sub(pts[i-1].Time).Hours() > gapHours {
+			flush(i)
+			start = i
+		}
+	}
+	return out
+}
+
+// AnalyzeTrend computes the trend of one tail from its analysed points (any
+// order) and its events: usable points only; per-flight medians; the recent
+// level; steps from a piecewise-linear segmentation of the per-flight series
+// (runs also start at events), kept when the jump between the two fitted
+// lines is significant; and the drift as the Theil–Sen slope of the daily
+// medians over the trailing DriftDays after the last step.
+func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) TailTrend {
+	tr := TailTrend{Tail: tail, Excluded: map[string]int{}, RecentPct: math.NaN(),
+		Drift: Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN()}, FuelFlowExpected: math.NaN()}
+	usable := make([]TrendPoint, 0, len(pts))
+	for _, p := range pts {
+		if why := c.Usable(p); why != "" {
+			tr.Excluded[why]++
+			continue
+		}
+		usable = append(usable, p)
+	}
+	sort.SliceStable(usable, func(i, j int) bool { return usable[i].Time.Before(usable[j].Time) })
+	tr.Points = len(usable)
+	tr.Events = append([]Event(nil), events...)
+	sort.SliceStable(tr.Events, func(i, j int) bool { return tr.Events[i].Time.Before(tr.Events[j].Time) })
+	if len(usable) == 0 {
+		return tr
+	}
+	tr.First, tr.Last = usable[0].Time, usable[len(usable)-1].Time
+	ff := make([]float64, len(usable))
+	for i, p := range usable {
+		ff[i] = p.FuelFlowExpected
+	}
+	tr.FuelFlowExpected = median(ff)
+	tr.Flights = Flights(usable, c.FlightGap)
+
+	recentFrom := tr.Last.Add(-time.Duration(c.RecentDays * 24 * float64(time.Hour)))
+	var recent []float64
+	for _, f := range tr.Flights {
+		if !f.Time.Before(recentFrom) {
+			recent = append(recent, f.DevPct)
+		}
+	}
+	tr.RecentPct = median(recent)
+
+	tr.findSteps(c)
+	tr.findDrift(c)
+	return tr
+}
+
+// findSteps segments the per-flight series and keeps significant jumps.
+func (tr *TailTrend) findSteps(c TrendConfig) {
+	n := len(tr.Flights)
+	x, y := make([]float64, n), make([]float64, n)
+	for i, f := range tr.Flights {
+		x[i], y[i] = days(f.Time, tr.First), f.DevPct
+	}
+	sigma := NoiseSigma(y)
+	if n < 2*max(c.MinSegment, 3) || math.IsNaN(sigma) || sigma == 0 {
+		if n >= 2 {
+			tr.Segments = []Line{newLineSums(x, y).fit(0, n)}
+		}
+		return
+	}
+	var forced []int
+	for _, e := range tr.Events {
+		i := sort.Search(n, func(i int) bool { return !tr.Flights[i].Time.Before(e.Time) })
+		if i > 0 && i < n {
+			forced = append(forced, i)
+		}
+	}
+	s2 := sigma * sigma
+	bounds := SegmentLines(x, y, c.MinSegment, c.PenaltyFactor*s2*math.Log(float64(n)), forced)
+	sums := newLineSums(x, y)
+	edges := append(append([]int{0}, bounds...), n)
+	for i := 0; i+1 < len(edges); i++ {
+		tr.Segments = append(tr.Segments, sums.fit(edges[i], edges[i+1]))
+	}
+	for i, b := range bounds {
+		left, right := tr.Segments[i], tr.Segments[i+1]
+		if left.N < 3 || right.N < 3 {
+			continue
+		}
+		at := 0.5 * (x[b-1] + x[b])
+		size := right.At(at) - left.At(at)
+		se := math.Sqrt(left.VarAt(at, s2) + right.VarAt(at, s2))
+		if math.Abs(size) < c.MinStepPct || math.Abs(size) < c.StepZ*se {
+			continue
+		}
+		st := Step{Time: tr.Flights[b].Time, SizePct: size, SE: se}
+		// An event at the boundary, or the nearest within EventMatchDays.
+		best := c.EventMatchDays
+		for k := range tr.Events {
+			if d := math.Abs(days(tr.Events[k].Time, st.Time)); d <= best {
+				best, st.Event = d, &tr.Events[k]
+			}
+		}
+		tr.Steps = append(tr.Steps, st)
+	}
+}
+
+// findDrift fits the Theil–Sen slope of the daily medians over the trailing
+// DriftDays, starting after the last step.
+func (tr *TailTrend) findDrift(c TrendConfig) {
+	from := tr.Last.Add(-time.Duration(c.DriftDays * 24 * float64(time.Hour)))
+	if from.Before(tr.First) {
+		from = tr.First
+	}
+	if k := len(tr.Steps); k > 0 && tr.Steps[k-1].Time.After(from) {
+		from = tr.Steps[k-1].Time
+	}
+	if days(tr.Last, from) < c.MinDriftDays {
+		return
+	}
+	var x, y, day []float64
+	cur := math.Inf(-1)
+	flushDay := func() {
+		if len(day) > 0 {
+			x = append(x, cur)
+			y = append(y, median(day))
+			day = day[:0]
+		}
+	}
+	for _, f := range tr.Flights {
+		if f.Time.Before(from) {
+			continue
+		}
+		d := math.Floor(days(f.Time, tr.First))
+		if d != cur {
+			flushDay()
+			cur = d
+		}
+		day = append(day, f.DevPct)
+	}
+	flushDay()
+	if len(x) < 10 {
+		return
+	}
+	s := TheilSen(x, y, 0.95)
+	tr.Drift = Slope{Slope: 100 * s.Slope, Lo: 100 * s.Lo, Hi: 100 * s.Hi, N: s.N}
+	tr.DriftFrom, tr.DriftTo = from, tr.Last
+}

@@ -1,0 +1,284 @@
+package model
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+	"time"
+)
+
+var day0 = time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
+
+// series makes one point per flight, two flights a day, with deviation
+// f(day) plus normal noise sigma.
+func series(nDays int, sigma float64, seed uint64, f func(d float64) float64) []TrendPoint {
+	rng := rand.New(rand.NewPCG(seed, 1))
+	var pts []TrendPoint
+	for d := 0; d < nDays; d++ {
+		for k := 0; k < 2; k++ {
+			t := day0.Add(time.Duration(d*24+6+8*k) * time.Hour)
+			x := float64(d) + float64(6+8*k)/24
+			pts = append(pts, TrendPoint{Time: t, Flight: "F" + string(rune('A'+k)), DevPct: f(x) + sigma*rng.NormFloat64(), FuelFlowExpected: 0.7})
+		}
+	}
+	return pts
+}
+
+// Theil–Sen: the slope of an exact line is exact and its interval has no
+// width; one wild point does not move it (its breakdown point is 29 %,
+// Sen 1968); on noisy lines the 95 % interval covers the true slope about
+// 95 % of the time.
+func TestTheilSen(t *testing.T) {
+	x := []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 10}
+	y := make([]float64, len(x))
+	for i := range x {
+		y[i] = 3 - 0.5*x[i]
+	}
+	s := TheilSen(x, y, 0.95)
+	if s.Slope != -0.5 || s.Lo != -0.5 || s.Hi != -0.5 {
+		t.Errorf("exact line: %+v", s)
+	}
+	y[9] = 1000
+	if s := TheilSen(x, y, 0.95); math.Abs(s.Slope+0.5) > 1e-12 {
+		t.Errorf("with an outlier: slope %g, want -0.5", s.Slope)
+	}
+	if s := TheilSen(x[:2], y[:2], 0.95); !math.IsNaN(s.Slope) {
+		t.Errorf("two points should give NaN, got %+v", s)
+	}
+	rng := rand.New(rand.NewPCG(42, 0))
+	covered, trials := 0, 400
+	for k := 0; k < trials; k++ {
+		xs, ys := make([]float64, 40), make([]float64, 40)
+		for i := range xs {
+			xs[i] = float64(i)
+			ys[i] = 0.2*xs[i] + rng.NormFloat64()
+		}
+		if s := TheilSen(xs, ys, 0.95); s.Lo <= 0.2 && 0.2 <= s.Hi {
+			covered++
+		}
+	}
+	if share := float64(covered) / float64(trials); share < 0.92 || share > 0.985 {
+		t.Errorf("95 %% interval covered the true slope in %.1f %% of trials", 100*share)
+	}
+}
+
+// The noise estimate from successive differences ignores steps and slow
+// drifts (Rousseeuw & Croux 1993: MAD scaled by 1.4826 estimates σ for
+// normal data).
+func TestNoiseSigma(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 0))
+	y := make([]float64, 4000)
+	for i := range y {
+		y[i] = 0.8*rng.NormFloat64() + 0.001*float64(i)
+		if i > 2000 {
+			y[i] += 5
+		}
+	}
+	if s := NoiseSigma(y); math.Abs(s-0.8) > 0.05 {
+		t.Errorf("σ = %.3f, want 0.8", s)
+	}
+}
+
+func TestSegmentLines(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 0))
+	n := 300
+	x, step, line := make([]float64, n), make([]float64, n), make([]float64, n)
+	for i := range x {
+		x[i] = float64(i)
+		e := 0.5 * rng.NormFloat64()
+		step[i] = e
+		if i >= 120 {
+			step[i] += 3
+		}
+		line[i] = 0.02*x[i] + e
+	}
+	pen := 8 * 0.25 * math.Log(float64(n))
+	tests := []struct {
+		name   string
+		y      []float64
+		forced []int
+		want   []int
+	}{
+		{"one step at 120", step, nil, []int{120}},
+		{"a straight line has no boundary", line, nil, nil},
+		{"a forced boundary stays", line, []int{200}, []int{200}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			got := SegmentLines(x, tc.y, 20, pen, tc.forced)
+			if len(got) != len(tc.want) {
+				t.Fatalf("boundaries %v, want %v", got, tc.want)
+			}
+			for i := range got {
+				if d := got[i] - tc.want[i]; d < -2 || d > 2 {
+					t.Errorf("boundary %d, want %d ± 2", got[i], tc.want[i])
+				}
+			}
+		})
+	}
+}
+
+func TestFlights(t *testing.T) {
+	pts := []TrendPoint{
+		{Time: day0, Flight: "A", DevPct: 1},
+		{Time: day0.Add(20 * time.Minute), Flight: "A", DevPct: 3},
+		{Time: day0.Add(40 * time.Minute), Flight: "A", DevPct: 2},
+		{Time: day0.Add(3 * time.Hour), Flight: "B", DevPct: 5},
+		{Time: day0.Add(24 * time.Hour), Flight: "B", DevPct: 7}, // same name, next day
+	}
+	f := Flights(pts, 6)
+	if len(f) != 3 || f[0].DevPct != 2 || f[0].N != 3 || f[1].DevPct != 5 || f[2].DevPct != 7 {
+		t.Errorf("flights %+v", f)
+	}
+}
+
+// Small hand-made tails with known answers (DESIGN.md §4.8).
+func TestAnalyzeTrend(t *testing.T) {
+	c := DefaultTrendConfig()
+	stepDay := 150.0
+	tests := []struct {
+		name      string
+		pts       []TrendPoint
+		recent    float64 // want ± 0.2
+		drift     float64 // pp/100 d ± 0.2; NaN for none
+		steps     []float64
+		stepDates []float64 // days after day0
+	}{
+		{"flat", series(300, 0.6, 1, func(float64) float64 { return 0.5 }), 0.5, 0, nil, nil},
+		{"step of 3 pp at day 150", series(300, 0.6, 2, func(d float64) float64 {
+			if d >= stepDay {
+				return 3
+			}
+			return 0
+		}), 3, 0, []float64{3}, []float64{stepDay}},
+		{"drift 1.2 pp/100 d is growth, not a step", series(400, 0.6, 3, func(d float64) float64 { return 0.012 * d }), 0.012 * 385, 1.2, nil, nil},
+		{"drift from day 150 on", series(400, 0.6, 4, func(d float64) float64 { return 0.01 * max(0, d-150) }), 0.01 * 235, 1.0, nil, nil},
+		{"too short for a drift", series(40, 0.6, 5, func(float64) float64 { return 1 }), 1, math.NaN(), nil, nil},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			tr := AnalyzeTrend("T1", tc.pts, nil, c)
+			if math.Abs(tr.RecentPct-tc.recent) > 0.25 {
+				t.Errorf("recent level %.2f, want %.2f", tr.RecentPct, tc.recent)
+			}
+			if math.IsNaN(tc.drift) != math.IsNaN(tr.Drift.Slope) || math.Abs(tr.Drift.Slope-tc.drift) > 0.2 {
+				t.Errorf("drift %.2f [%.2f, %.2f], want %.2f", tr.Drift.Slope, tr.Drift.Lo, tr.Drift.Hi, tc.drift)
+			}
+			if len(tr.Steps) != len(tc.steps) {
+				t.Fatalf("steps %+v, want sizes %v", tr.Steps, tc.steps)
+			}
+			for i, s := range tr.Steps {
+				if math.Abs(s.SizePct-tc.steps[i]) > 0.3 || math.Abs(days(s.Time, day0)-tc.stepDates[i]) > 2 {
+					t.Errorf("step %+.2f on day %.1f, want %+.2f on day %.0f", s.SizePct, days(s.Time, day0), tc.steps[i], tc.stepDates[i])
+				}
+			}
+			if tr.Flights == nil || tr.Points != len(tc.pts) {
+				t.Errorf("points %d, flights %d", tr.Points, len(tr.Flights))
+			}
+		})
+	}
+}
+
+// A step at an event is dated at the event and carries it; after a step the
+// drift window restarts.
+func TestAnalyzeTrendEvent(t *testing.T) {
+	pts := series(300, 0.5, 9, func(d float64) float64 {
+		if d >= 200 {
+			return 0
+		}
+		return 4
+	})
+	ev := []Event{{Time: day0.Add(200 * 24 * time.Hour), Kind: "repair", Note: "seal replaced"}}
+	tr := AnalyzeTrend("T1", pts, ev, DefaultTrendConfig())
+	if len(tr.Steps) != 1 || tr.Steps[0].Event == nil || tr.Steps[0].Event.Kind != "repair" || math.Abs(tr.Steps[0].SizePct+4) > 0.3 {
+		t.Fatalf("steps %+v", tr.Steps)
+	}
+	if !tr.DriftFrom.Equal(tr.Steps[0].Time) {
+		t.Errorf("drift window from %v, want the step at %v", tr.DriftFrom, tr.Steps[0].Time)
+	}
+}
+
+// No panic and clear answers for a tail with one flight, a tail with all
+// points excluded, and an empty fleet.
+func TestTrendEdgeCases(t *testing.T) {
+	c := DefaultTrendConfig()
+	one := AnalyzeTrend("ONE", []TrendPoint{{Time: day0, Flight: "A", DevPct: 1.5, FuelFlowExpected: 0.6}}, nil, c)
+	if one.Points != 1 || len(one.Flights) != 1 || one.RecentPct != 1.5 || !math.IsNaN(one.Drift.Slope) || len(one.Steps) != 0 {
+		t.Errorf("one flight: %+v", one)
+	}
+	bad := AnalyzeTrend("BAD", []TrendPoint{{Time: day0, DevPct: 40}, {Time: day0, DevPct: 1, Bank: 1}}, nil, c)
+	if bad.Points != 0 || bad.Excluded[ExcludeImplausible] != 1 || bad.Excluded[ExcludeBank] != 1 || !math.IsNaN(bad.RecentPct) {
+		t.Errorf("all excluded: %+v", bad)
+	}
+	f := AssessFleet([]TailTrend{one, bad}, c)
+	if len(f.Tails) != 2 || f.Flagged != 0 || f.Tails[0].Tail != "ONE" {
+		t.Errorf("fleet %+v", f)
+	}
+	if e := AssessFleet(nil, c); len(e.Tails) != 0 || !math.IsNaN(e.MedianRecentPct) {
+		t.Errorf("empty fleet %+v", e)
+	}
+}
+
+func TestAssessFleet(t *testing.T) {
+	c := DefaultTrendConfig()
+	c.FuelPrice = 0.8
+	nan := math.NaN()
+	mk := func(tail string, recent, drift, lo float64, steps ...float64) TailTrend {
+		tr := TailTrend{Tail: tail, RecentPct: recent, FuelFlowExpected: 0.7, Drift: Slope{Slope: drift, Lo: lo, Hi: drift + 1}}
+		for i, s := range steps {
+			tr.Steps = append(tr.Steps, Step{Time: day0.Add(time.Duration(i) * 24 * time.Hour), SizePct: s})
+		}
+		return tr
+	}
+	f := AssessFleet([]TailTrend{
+		mk("A", 0.0, 0.1, -0.1), mk("B", 0.2, 0, -0.2), mk("C", -0.1, nan, nan),
+		mk("HIGH", 2.5, 0, -0.1),
+		mk("GROW", 1.0, 0.7, 0.2),            // 0.7 × 1.8 = 1.26 pp over 180 d
+		mk("SLOW", 0.5, 0.5, 0.1),            // 0.9 pp: not enough
+		mk("WIDE", 0.5, 0.9, -0.1),           // interval holds zero
+		mk("STEP", 1.5, 0, -0.1, 1.6),        // a step still there
+		mk("FIXED", 0.1, 0, -0.1, 2.0, -1.9), // stepped, then repaired
+		mk("BETTER", -1.5, 0, -0.1, -1.4),    // an improvement
+	}, c)
+	want := map[string]string{"HIGH": "[level]", "GROW": "[growth]", "STEP": "[step]"}
+	for _, a := range f.Tails {
+		if got := fmtFlags(a.Flags); got != orEmpty(want[a.Tail]) {
+			t.Errorf("%s: flags %s, want %s", a.Tail, got, orEmpty(want[a.Tail]))
+		}
+	}
+	if f.Flagged != 3 || f.Tails[0].Tail != "HIGH" {
+		t.Errorf("flagged %d, first %s", f.Flagged, f.Tails[0].Tail)
+	}
+	for _, a := range f.Tails {
+		switch a.Tail {
+		case "HIGH":
+			// 2.5 % of 0.7 kg/s (2,520 kg/h) over 2,500 h = 157,500 kg;
+			// CO2 × 3.16 (ICAO); money at 0.8 per kg.
+			if math.Abs(a.ExcessFuel-157500) > 1e-6 || math.Abs(a.CO2-3.16*157500) > 1e-3 || math.Abs(a.Money-0.8*157500) > 1e-6 {
+				t.Errorf("cost %+v", a)
+			}
+		case "BETTER", "FIXED":
+			if len(a.Improvements) != 1 {
+				t.Errorf("%s: improvements %+v", a.Tail, a.Improvements)
+			}
+		}
+	}
+}
+
+func fmtFlags(f []string) string {
+	s := "["
+	for i, x := range f {
+		if i > 0 {
+			s += " "
+		}
+		s += x
+	}
+	return s + "]"
+}
+
+func orEmpty(s string) string {
+	if s == "" {
+		return "[]"
+	}
+	return s
+}
