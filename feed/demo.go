@@ -29,6 +29,10 @@ type DemoConfig struct {
 	Days  int       // days of data (default 730)
 	Seed  uint64    // random seed (default 1)
 	Start time.Time // first day, UTC midnight (default 2025-01-01)
+	// Type is the aircraft type flown (default: the demo type). Weights
+	// scale with its wing area and buffet limit, speeds with its
+	// maximum-range Mach.
+	Type *model.Type
 }
 
 func (c DemoConfig) withDefaults() DemoConfig {
@@ -43,6 +47,9 @@ func (c DemoConfig) withDefaults() DemoConfig {
 	}
 	if c.Start.IsZero() {
 		c.Start = time.Date(2025, 1, 1, 0, 0, 0, 0, time.UTC)
+	}
+	if c.Type == nil {
+		c.Type = DemoType()
 	}
 	return c
 }
@@ -162,18 +169,29 @@ type demoGen struct {
 	rng   *rand.Rand
 	tails []TailTruth
 	end   time.Time
-	// optimum altitude (m) by whole tonne of weight, for choosing levels
-	optAlt map[int]float64
+	wMid  float64 // a mid cruise weight of the type, kg
+	// optimum altitude (m) by weight in steps of 2 % of wMid, for levels
+	optAlt         map[int]float64
+	machLo, machHi float64 // cruise Mach range flown
 }
+
+// wingLoading is the demo's mid cruise weight per wing area at a buffet
+// CL of 0.85, kg/m² (65 t on 112 m²).
+const wingLoading = 580.0
 
 func newDemoGen(cfg DemoConfig) *demoGen {
 	cfg = cfg.withDefaults()
-	g := &demoGen{cfg: cfg, ty: DemoType(), rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
+	g := &demoGen{cfg: cfg, ty: cfg.Type, rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
 		end: cfg.Start.AddDate(0, 0, cfg.Days), optAlt: map[int]float64{}}
-	for w := 45; w <= 80; w++ {
-		maxAlt, _ := model.MaxAltitude(g.ty, float64(w)*1000, 0, 0)
-		g.optAlt[w], _ = model.OptimumAltitude(g.ty, float64(w)*1000, 0, 0, maxAlt)
+	g.wMid = wingLoading * g.ty.WingArea * g.ty.CLBuffet / 0.85
+	for k := 35; k <= 65; k++ {
+		w := g.wMid * float64(k) / 50
+		maxAlt, _ := model.MaxAltitude(g.ty, w, 0, 0)
+		g.optAlt[k], _ = model.OptimumAltitude(g.ty, w, 0, 0, maxAlt)
 	}
+	mr := model.MaxRangeMach(g.ty, g.wMid, model.AirISA(g.optAlt[50], 0), 0).Mach
+	g.machHi = math.Min(mr+0.022, g.ty.MMO-0.005)
+	g.machLo = g.machHi - 0.03
 	g.assignRoles()
 	return g
 }
@@ -315,7 +333,7 @@ func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, 
 // cruiseLevel returns the flight level (ft, odd thousands) at or below the
 // optimum altitude for weight w.
 func (g *demoGen) cruiseLevel(w float64) float64 {
-	opt := g.optAlt[max(45, min(80, int(math.Round(w/1000))))] / model.Foot
+	opt := g.optAlt[max(35, min(65, int(math.Round(50*w/g.wMid))))] / model.Foot
 	fl := math.Floor((opt-1000)/2000)*2000 + 1000
 	return max(29000, fl)
 }
@@ -342,9 +360,9 @@ func (g *demoGen) days(fn func([]demoRow)) {
 			dep := day.Add(time.Duration(5*60+g.rng.IntN(180)) * time.Minute)
 			for k := 0; k < flights; k++ {
 				flight := fmt.Sprintf("DDF%04d", 100+(i*37+k*11)%900)
-				w := g.uniform(60000, 76000)
+				w := g.wMid * g.uniform(0.924, 1.17)
 				alt := g.cruiseLevel(w)
-				m := math.Round(g.uniform(0.765, 0.795)*1000) / 1000
+				m := math.Round(g.uniform(g.machLo, g.machHi)*1000) / 1000
 				bias := g.rng.NormFloat64() * 0.004 // per-flight instrument bias
 				fdev := dev + g.rng.NormFloat64()*1.5
 				t := dep.Add(25 * time.Minute)

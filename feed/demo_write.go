@@ -90,10 +90,10 @@ func writeEvents(w io.Writer, ev []DemoEvent) error {
 // at dep: climb from FL100 to cruise, a step climb, two turns, until top of
 // descent.
 func (g *demoGen) trace(tt *TailTruth, flight string, dep time.Time) []demoRow {
-	w := 72000.0
+	w := 1.11 * g.wMid
 	cruise := g.cruiseLevel(w) - 2000
 	dev := g.isaDev(dep)
-	const cruiseMach = 0.78
+	cruiseMach := math.Round((g.machLo+0.015)*1000) / 1000
 	alt, m := 10000.0, 0.60
 	var rows []demoRow
 	t := dep.Add(8 * time.Minute)
@@ -185,7 +185,7 @@ func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
 	if err := f.Close(); err != nil {
 		return truth, err
 	}
-	if err := os.WriteFile(filepath.Join(dir, DemoTypeFile), DemoTypeTOML(), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, DemoTypeFile), FormatType(g.ty), 0o644); err != nil {
 		return truth, err
 	}
 	truth.Events = g.events()

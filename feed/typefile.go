@@ -9,6 +9,7 @@ import (
 	"math"
 	"os"
 	"regexp"
+	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -188,4 +189,21 @@ func keyLines(data []byte) map[string]int {
 		}
 	}
 	return out
+}
+
+// FormatType writes t as a type file (DESIGN.md §3.2) that ParseType reads
+// back to the same values.
+func FormatType(t *model.Type) []byte {
+	var b bytes.Buffer
+	f := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+	fmt.Fprintf(&b, "name = %s\n\n", strconv.Quote(t.Name))
+	fmt.Fprintf(&b, "[wing]\narea_m2 = %s\nspan_m = %s\n\n", f(t.WingArea), f(t.Span))
+	fmt.Fprintf(&b, "[polar]\ncd0 = %s\noswald = %s\n\n", f(t.CD0), f(t.Oswald))
+	fmt.Fprintf(&b, "[wave]\nkappa_a = %s\nthickness_ratio = %s\nsweep_deg = %s\n\n", f(t.KappaA), f(t.ThicknessRatio), f(t.Sweep*180/math.Pi))
+	fmt.Fprintf(&b, "[engine]\ncount = %d\ntsfc_a_per_h = %s\ntsfc_b_per_h = %s\n", t.EngineCount, f(t.TSFCA*model.G0*model.Hour), f(t.TSFCB*model.G0*model.Hour))
+	if t.MaxThrustPerDelta > 0 {
+		fmt.Fprintf(&b, "max_cruise_thrust_per_delta_n = %s\n", f(t.MaxThrustPerDelta))
+	}
+	fmt.Fprintf(&b, "\n[limits]\nmmo = %s\nmax_alt_ft = %s\ncl_buffet = %s\n", f(t.MMO), f(t.MaxAltitude/model.Foot), f(t.CLBuffet))
+	return b.Bytes()
 }

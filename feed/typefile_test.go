@@ -115,3 +115,29 @@ func TestLoadTypeFile(t *testing.T) {
 		t.Errorf("missing file: error %v should name the file", err)
 	}
 }
+
+// FormatType and ParseType are inverses (TOML strings are quoted by Go's
+// rules, which TOML accepts for plain text).
+func TestFormatTypeRoundTrip(t *testing.T) {
+	for _, path := range []string{"", "../testdata/types/widebody.toml"} {
+		ty, err := LoadType(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		back, err := ParseType("formatted", FormatType(ty))
+		if err != nil {
+			t.Fatalf("%s: %v\n%s", path, err, FormatType(ty))
+		}
+		const rel = 1e-12
+		pairs := [][2]float64{{ty.WingArea, back.WingArea}, {ty.Sweep, back.Sweep}, {ty.TSFCA, back.TSFCA}, {ty.TSFCB, back.TSFCB},
+			{ty.MaxAltitude, back.MaxAltitude}, {ty.MaxThrustPerDelta, back.MaxThrustPerDelta}, {ty.CD0, back.CD0}}
+		for i, p := range pairs {
+			if d := p[0] - p[1]; d > rel*p[0] || d < -rel*p[0] {
+				t.Errorf("%s: value %d: %g became %g", path, i, p[0], p[1])
+			}
+		}
+		if back.Name != ty.Name || back.EngineCount != ty.EngineCount {
+			t.Errorf("%s: %+v", path, back)
+		}
+	}
+}

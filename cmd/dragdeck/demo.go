@@ -9,15 +9,17 @@ import (
 )
 
 func runDemo(e *env, args []string) error {
-	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S]",
+	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE]",
 		`Writes the invented demo fleet into DIR: snapshots.csv (cruise snapshots of
 every tail, with a few broken rows on purpose), type.toml (the demo type),
 events.csv (repairs and washes), traces/ (per-minute records of a few whole
 flights, for replay) and truth.json (what was injected per tail: drift, steps,
 offsets, expected flags, and the broken rows). The same seed gives the same
 bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
-1.1 million rows.`,
+1.1 million rows. --type flies another aircraft type: weights scale with its
+wing area and buffet limit, speeds with its maximum-range Mach.`,
 		"dragdeck demo --out /tmp/fleet --tails 24 --days 730 --seed 1")
+	typ := fs.typeFlag()
 	out := fs.str("out", "DIR", "", "folder to write into, created if needed (required)")
 	tails := fs.Int("tails", 24, "number of aircraft")
 	days := fs.Int("days", 730, "days of data")
@@ -37,7 +39,11 @@ bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
 	case *seed == 0:
 		return usageErrorf("--seed: must be > 0")
 	}
-	truth, err := feed.WriteDemo(*out, feed.DemoConfig{Tails: *tails, Days: *days, Seed: *seed})
+	t, err := loadType(*typ)
+	if err != nil {
+		return err
+	}
+	truth, err := feed.WriteDemo(*out, feed.DemoConfig{Tails: *tails, Days: *days, Seed: *seed, Type: t})
 	if err != nil {
 		return usageErrorf("--out: %v", err)
 	}

@@ -16,7 +16,7 @@ const (
 )
 
 // caution is printed under every human-readable result.
-const caution = "Engineering monitoring aid, not approved performance data; the operator's approved procedures and local regulations prevail."
+const caution = "Engineering monitoring aid, not approved performance data; the operator's\napproved procedures and local regulations prevail."
 
 // env is what a command gets from run.
 type env struct {
@@ -41,6 +41,7 @@ func commands() []command {
 		{"check", "validate snapshot files; list every rejected row", runCheck},
 		{"replay", "play snapshots in time order, analysed, at a chosen speed", runReplay},
 		{"follow", "watch a growing snapshot file; analyse rows as they arrive", runFollow},
+		{"report", "per-tail drag trends, flags and cost for a fleet", runReport},
 		{"demo", "write the invented demo fleet, its type file and its truth", runDemo},
 	}
 }

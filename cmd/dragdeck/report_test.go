@@ -1,0 +1,173 @@
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"dragdeck/feed"
+)
+
+type reportOut struct {
+	Read     int `json:"read"`
+	Rejected int `json:"rejected"`
+	Fleet    struct {
+		Tails   int      `json:"tails"`
+		Flagged int      `json:"flagged"`
+		Median  *float64 `json:"deviation_pct_median"`
+	} `json:"fleet"`
+	Tails []struct {
+		Tail    string     `json:"tail"`
+		Points  int        `json:"points"`
+		Flights int        `json:"flights"`
+		First   string     `json:"first"`
+		Last    string     `json:"last"`
+		Dev     *float64   `json:"deviation_pct"`
+		Drift   *float64   `json:"drift_pct_per_100d"`
+		CI      []*float64 `json:"drift_ci95_pct_per_100d"`
+		Steps   []struct {
+			Date    string  `json:"date"`
+			SizePct float64 `json:"size_pct"`
+		} `json:"steps"`
+		Flags []string `json:"flags"`
+		Fuel  float64  `json:"excess_fuel_kg_per_year"`
+		CO2   float64  `json:"co2_t_per_year"`
+	} `json:"tails"`
+}
+
+// On demo fleets it has not seen — other seeds, sizes, spans and an aircraft
+// type of their own — report flags exactly the tails the truth file names,
+// dates each step within 7 days and 0.4 pp, finds each drift within
+// 0.3 pp/100 d (a drift is growth, never a step) and counts every rejected row.
+func TestReportFindsTheTruth(t *testing.T) {
+	tests := []struct {
+		name string
+		args []string
+	}{
+		{"demo type, 24 tails, 2 years", []string{"--tails", "24", "--days", "730", "--seed", "1"}},
+		{"demo type, 40 tails, 500 days", []string{"--tails", "40", "--days", "500", "--seed", "21"}},
+		{"widebody type, 30 tails", []string{"--tails", "30", "--days", "650", "--seed", "5", "--type", "../../testdata/types/widebody.toml"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			if code, _, errs := runArgs(append([]string{"demo", "--out", dir}, tc.args...)...); code != 0 {
+				t.Fatalf("demo: %s", errs)
+			}
+			var truth feed.DemoTruth
+			js, _ := os.ReadFile(filepath.Join(dir, feed.DemoTruthFile))
+			if err := json.Unmarshal(js, &truth); err != nil {
+				t.Fatal(err)
+			}
+			code, out, errs := runArgs("report", "--format", "json", "--type", filepath.Join(dir, feed.DemoTypeFile),
+				"--events", filepath.Join(dir, feed.DemoEventsFile), filepath.Join(dir, "snapshots"))
+			if code != 0 {
+				t.Fatalf("report: exit %d %s", code, errs)
+			}
+			var rep reportOut
+			if err := json.Unmarshal([]byte(out), &rep); err != nil {
+				t.Fatal(err)
+			}
+			if rep.Read != truth.Rows || rep.Rejected != truth.Rejected || rep.Fleet.Tails != len(truth.Tails) {
+				t.Errorf("read %d rejected %d tails %d; truth %d, %d, %d", rep.Read, rep.Rejected, rep.Fleet.Tails, truth.Rows, truth.Rejected, len(truth.Tails))
+			}
+			byTail := map[string]feed.TailTruth{}
+			flagged := 0
+			for _, tt := range truth.Tails {
+				byTail[tt.Tail] = tt
+				if len(tt.ExpectedFlags) > 0 {
+					flagged++
+				}
+			}
+			if rep.Fleet.Flagged != flagged {
+				t.Errorf("%d tails flagged, truth says %d", rep.Fleet.Flagged, flagged)
+			}
+			for _, r := range rep.Tails {
+				tt := byTail[r.Tail]
+				if strings.Join(r.Flags, ",") != strings.Join(tt.ExpectedFlags, ",") {
+					t.Errorf("%s (%s): flags %v, truth %v", r.Tail, tt.Role, r.Flags, tt.ExpectedFlags)
+				}
+				if r.Drift == nil || math.Abs(*r.Drift-tt.DriftPctPer100d) > 0.3 {
+					t.Errorf("%s (%s): drift %v pp/100 d, truth %.2f", r.Tail, tt.Role, r.Drift, tt.DriftPctPer100d)
+				}
+				if r.Dev == nil || math.Abs(*r.Dev-tt.RecentLevelPct) > 0.4 {
+					t.Errorf("%s: recent level %v, truth %.2f", r.Tail, r.Dev, tt.RecentLevelPct)
+				}
+				if len(r.Steps) != len(tt.Steps) {
+					t.Errorf("%s (%s): steps %+v, truth %+v", r.Tail, tt.Role, r.Steps, tt.Steps)
+					continue
+				}
+				for i, s := range r.Steps {
+					got, _ := time.Parse(time.DateOnly, s.Date)
+					want, _ := time.Parse(time.DateOnly, tt.Steps[i].Date)
+					if d := got.Sub(want).Hours() / 24; math.Abs(d) > 7 || math.Abs(s.SizePct-tt.Steps[i].SizePct) > 0.4 {
+						t.Errorf("%s: step %s %+.2f, truth %s %+.2f", r.Tail, s.Date, s.SizePct, tt.Steps[i].Date, tt.Steps[i].SizePct)
+					}
+				}
+			}
+		})
+	}
+}
+
+func TestReportFormatsAndExits(t *testing.T) {
+	dir := t.TempDir()
+	runArgs("demo", "--out", dir, "--tails", "8", "--days", "200", "--seed", "4")
+	snaps := filepath.Join(dir, "snapshots")
+	rejects := filepath.Join(dir, "rejects.txt")
+	code, out, errs := runArgs("report", "--rejects", rejects, "--fuel-price-per-kg", "0.9", snaps)
+	if code != 0 || !strings.Contains(out, "money: thousands per year") || !strings.Contains(out, "not approved performance data") {
+		t.Errorf("table: exit %d %s\n%s", code, errs, out)
+	}
+	for _, line := range strings.Split(out, "\n") {
+		if len([]rune(line)) > 80 {
+			t.Errorf("table line wider than 80 columns: %q", line)
+		}
+	}
+	rj, _ := os.ReadFile(rejects)
+	if strings.Count(string(rj), "\n") != 8 || !strings.Contains(string(rj), "fleet.csv:") {
+		t.Errorf("rejects file:\n%s", rj)
+	}
+	code, out, _ = runArgs("report", "--format", "csv", snaps)
+	if code != 0 || !strings.HasPrefix(out, "tail,points,flights,first,last,deviation_pct,drift_pct_per_100d") || strings.Count(out, "\n") != 9 {
+		t.Errorf("csv: exit %d\n%s", code, out)
+	}
+	if code, _, _ := runArgs("report", "--fail-on-flag", snaps); code != 1 {
+		t.Errorf("--fail-on-flag with flagged tails: exit %d, want 1", code)
+	}
+	if code, _, _ := runArgs("report", "--fail-on-flag", "--level-pp", "50", "--growth-pp", "50", "--step-pp", "50", snaps); code != 0 {
+		t.Errorf("--fail-on-flag with nothing flagged: exit %d, want 0", code)
+	}
+	for _, args := range [][]string{{"report"}, {"report", "--format", "xml", snaps}, {"report", "--drift-days", "0", snaps}, {"report", "--events", "nope.csv", snaps}} {
+		if code, _, _ := runArgs(args...); code != 2 {
+			t.Errorf("%v: exit %d, want 2", args, code)
+		}
+	}
+}
+
+// An empty fleet, a tail with one flight and a tail with every row rejected
+// give clear output, never a panic.
+func TestReportEdgeFleets(t *testing.T) {
+	dir := t.TempDir()
+	head := "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"
+	os.WriteFile(filepath.Join(dir, "empty.csv"), []byte(head), 0o644)
+	os.WriteFile(filepath.Join(dir, "mixed.csv"), []byte(head+
+		"2026-03-01T10:00:00Z,ONE,F1,65000,35000,0.78,-54,2400\n"+
+		"2026-03-01T10:00:00Z,BAD,F1,65000,35000,1.78,-54,2400\n"), 0o644)
+	code, out, errs := runArgs("report", filepath.Join(dir, "empty.csv"))
+	if code != 0 || !strings.Contains(out, "No usable snapshots") {
+		t.Errorf("empty fleet: exit %d %s\n%s", code, errs, out)
+	}
+	code, out, errs = runArgs("report", "--format", "json", filepath.Join(dir, "mixed.csv"))
+	var rep reportOut
+	if code != 0 || json.Unmarshal([]byte(out), &rep) != nil || rep.Fleet.Tails != 1 || rep.Rejected != 1 || rep.Tails[0].Flights != 1 {
+		t.Errorf("one-flight tail: exit %d %s\n%s", code, errs, out)
+	}
+	code, out, _ = runArgs("report", filepath.Join(dir, "mixed.csv"))
+	if code != 0 || !strings.Contains(out, "ONE") {
+		t.Errorf("table: %s", out)
+	}
+}

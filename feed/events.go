@@ -1,0 +1,75 @@
+package feed
+
+import (
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+	"time"
+
+	"dragdeck/model"
+)
+
+// ReadEvents reads an events file (DESIGN.md §3.3): time,tail,kind,note,
+// with '#' comments. It returns the events by tail. A bad row is an error
+// "file:line: column: reason"; events are few, so one bad row stops it.
+func ReadEvents(path string) (map[string][]model.Event, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	r.FieldsPerRecord = -1
+	r.TrimLeadingSpace = true
+	out := map[string][]model.Event{}
+	var idx map[string]int
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			break
+		}
+		line, _ := r.FieldPos(0)
+		if err != nil {
+			var pe *csv.ParseError
+			if errors.As(err, &pe) {
+				return nil, fmt.Errorf("%s:%d: row: %v", path, pe.Line, pe.Err)
+			}
+			return nil, fmt.Errorf("%s: %w", path, err)
+		}
+		if idx == nil {
+			idx = map[string]int{}
+			for i, name := range rec {
+				idx[strings.ToLower(strings.TrimSpace(strings.TrimPrefix(name, "\ufeff")))] = i
+			}
+			for _, need := range []string{"time", "tail", "kind"} {
+				if _, ok := idx[need]; !ok {
+					return nil, fmt.Errorf("%s:%d: missing required column %s (events files have time,tail,kind,note)", path, line, need)
+				}
+			}
+			continue
+		}
+		get := func(col string) string {
+			if i, ok := idx[col]; ok && i < len(rec) {
+				return strings.TrimSpace(rec[i])
+			}
+			return ""
+		}
+		t, err := time.Parse(time.RFC3339, get("time"))
+		if err != nil {
+			return nil, fmt.Errorf("%s:%d: time: %q is not an RFC 3339 time", path, line, get("time"))
+		}
+		tail := get("tail")
+		if tail == "" {
+			return nil, fmt.Errorf("%s:%d: tail: empty", path, line)
+		}
+		out[tail] = append(out[tail], model.Event{Time: t, Kind: get("kind"), Note: get("note")})
+	}
+	if idx == nil {
+		return nil, fmt.Errorf("%s: no header line (events files have time,tail,kind,note)", path)
+	}
+	return out, nil
+}

@@ -1,0 +1,124 @@
+package feed
+
+import (
+	"runtime"
+	"sort"
+	"sync"
+	"time"
+
+	"dragdeck/model"
+)
+
+// FleetData is a fleet's snapshots, analysed and grouped by tail.
+type FleetData struct {
+	Points      map[string][]model.TrendPoint // in file order; the trend sorts them
+	Files       []FileResult
+	Stats       Stats
+	First, Last time.Time
+}
+
+// batchSize is how many records travel together from reader to analyser.
+const batchSize = 4096
+
+// LoadFleet reads the snapshot files, analyses every accepted snapshot with
+// the type's baseline polar and groups the points by tail. Files are read
+// concurrently and analysed as they are parsed, so that one large file uses
+// two cores. reject (may be nil) gets every rejected row, one at a time.
+func LoadFleet(paths []string, t *model.Type, reject func(*RowError)) *FleetData {
+	fd := &FleetData{Points: map[string][]model.TrendPoint{}, Files: make([]FileResult, len(paths))}
+	batches := make(chan []Record, 8)
+	free := make(chan []Record, 16) // batches to reuse
+	getBatch := func() []Record {
+		select {
+		case b := <-free:
+			return b[:0]
+		default:
+			return make([]Record, 0, batchSize)
+		}
+	}
+	var rejMu sync.Mutex
+	onReject := func(r *RowError) {
+		if reject != nil {
+			rejMu.Lock()
+			reject(r)
+			rejMu.Unlock()
+		}
+	}
+	jobs := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < max(1, min(runtime.GOMAXPROCS(0), len(paths))); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				batch := getBatch()
+				fd.Files[i] = ReadFile(paths[i], func(r Record) {
+					batch = append(batch, r)
+					if len(batch) == batchSize {
+						batches <- batch
+						batch = getBatch()
+					}
+				}, onReject)
+				batches <- batch
+			}
+		}()
+	}
+	go func() {
+		for i := range paths {
+			jobs <- i
+		}
+		close(jobs)
+		wg.Wait()
+		close(batches)
+	}()
+	for batch := range batches {
+		for _, r := range batch {
+			p := model.Analyze(t, r.Snap)
+			fd.Points[r.Tail] = append(fd.Points[r.Tail], model.TrendPoint{
+				Time: r.Time, Flight: r.Flight, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
+				Bank: r.Snap.Bank, VS: r.Snap.VS, Accel: r.Snap.Accel,
+			})
+			if fd.First.IsZero() || r.Time.Before(fd.First) {
+				fd.First = r.Time
+			}
+			if r.Time.After(fd.Last) {
+				fd.Last = r.Time
+			}
+		}
+		select {
+		case free <- batch:
+		default:
+		}
+	}
+	for _, f := range fd.Files {
+		fd.Stats.Add(f.Stats)
+	}
+	return fd
+}
+
+// Trends computes every tail's trend, tails in parallel, in tail order.
+func (fd *FleetData) Trends(events map[string][]model.Event, c model.TrendConfig) []model.TailTrend {
+	tails := make([]string, 0, len(fd.Points))
+	for tail := range fd.Points {
+		tails = append(tails, tail)
+	}
+	sort.Strings(tails)
+	out := make([]model.TailTrend, len(tails))
+	jobs := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				out[i] = model.AnalyzeTrend(tails[i], fd.Points[tails[i]], events[tails[i]], c)
+			}
+		}()
+	}
+	for i := range tails {
+		jobs <- i
+	}
+	close(jobs)
+	wg.Wait()
+	return out
+}
