@@ -295,7 +295,7 @@ func writeReportTable(w io.Writer, fd *feed.FleetData, f model.Fleet, t *model.T
 		"100 days over the trailing %g days (Theil–Sen). last step: date and size in pp.\n"+
 		"fuel, CO2: excess per year at %g cruise hours", c.RecentDays, c.DriftDays, c.CruiseHours)
 	if price > 0 {
-		fmt.Fprintf(w, "; money: thousands per year at %g per kg", price)
+		fmt.Fprintf(w, ";\nmoney: thousands per year at %g per kg of fuel", price)
 	}
 	fmt.Fprintf(w, ".\n%s\n", caution)
 }
