@@ -42,6 +42,7 @@ type TrendConfig struct {
 	StepZ          float64 // a step is significant when |size| / SE ≥ this (4)
 	MinStepPct     float64 // smallest step reported (0.5 pp)
 	EventMatchDays float64 // an event this close to a step is shown beside it (7)
+	StepWindowDays float64 // a step is tested on this many days each side (60)
 
 	LevelPP  float64 // flag level: recent ≥ fleet median + this (2.0 pp)
 	GrowthPP float64 // flag growth: drift × DriftDays ≥ this (1.0 pp)
@@ -56,7 +57,7 @@ func DefaultTrendConfig() TrendConfig {
 	return TrendConfig{
 		RecentDays: 30, DriftDays: 180, MinDriftDays: 60, FlightGap: 6,
 		MaxAbsDevPct: 25, MaxBank: 30 * math.Pi / 180, MaxVS: 1500 * Foot / Minute, MaxAccel: 5 * Knot / Minute,
-		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7,
+		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7, StepWindowDays: 60,
 		LevelPP: 2, GrowthPP: 1, StepPP: 1,
 		CruiseHours: 2500,
 	}
@@ -226,14 +227,25 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 		tr.Segments = append(tr.Segments, sums.fit(edges[i], edges[i+1]))
 	}
 	for i, b := range bounds {
-		left, right := tr.Segments[i], tr.Segments[i+1]
-		if left.N < 3 || right.N < 3 {
+		// Whether the jump is real is tested on lines fitted to the flights
+		// within StepWindowDays of the boundary: a boundary placed near the
+		// start of a drift shows no jump there. Its size is then measured
+		// on the whole neighbouring runs, which is more precise.
+		at := 0.5 * (x[b-1] + x[b])
+		lo := sort.SearchFloat64s(x[edges[i]:b], at-c.StepWindowDays) + edges[i]
+		hi := sort.SearchFloat64s(x[b:edges[i+2]], at+c.StepWindowDays) + b
+		if b-lo < 3 || hi-b < 3 {
 			continue
 		}
-		at := 0.5 * (x[b-1] + x[b])
+		nearL, nearR := sums.fit(lo, b), sums.fit(b, hi)
+		local := nearR.At(at) - nearL.At(at)
+		if math.Abs(local) < c.MinStepPct || math.Abs(local) < c.StepZ*math.Sqrt(nearL.VarAt(at, s2)+nearR.VarAt(at, s2)) {
+			continue
+		}
+		left, right := tr.Segments[i], tr.Segments[i+1]
 		size := right.At(at) - left.At(at)
 		se := math.Sqrt(left.VarAt(at, s2) + right.VarAt(at, s2))
-		if math.Abs(size) < c.MinStepPct || math.Abs(size) < c.StepZ*se {
+		if math.Abs(size) < c.MinStepPct {
 			continue
 		}
 		st := Step{Time: tr.Flights[b].Time, SizePct: size, SE: se}

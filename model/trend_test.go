@@ -153,6 +153,9 @@ func TestAnalyzeTrend(t *testing.T) {
 		}), 3, 0, []float64{3}, []float64{stepDay}},
 		{"drift 1.2 pp/100 d is growth, not a step", series(400, 0.6, 3, func(d float64) float64 { return 0.012 * d }), 0.012 * 385, 1.2, nil, nil},
 		{"drift from day 150 on", series(400, 0.6, 4, func(d float64) float64 { return 0.01 * max(0, d-150) }), 0.01 * 235, 1.0, nil, nil},
+		// A long flat run, then a drift: segmentation may place a boundary
+		// well before the drift starts, but that is no step.
+		{"flat 420 days, then a drift of 1.2 pp/100 d", series(660, 0.6, 6, func(d float64) float64 { return 0.012 * max(0, d-420) }), 0.012 * 225, 1.2, nil, nil},
 		{"too short for a drift", series(40, 0.6, 5, func(float64) float64 { return 1 }), 1, math.NaN(), nil, nil},
 	}
 	for _, tc := range tests {
