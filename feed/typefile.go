@@ -195,7 +195,7 @@ func keyLines(data []byte) map[string]int {
 // back to the same values.
 func FormatType(t *model.Type) []byte {
 	var b bytes.Buffer
-	f := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 15, 64) } // 15 digits hide the rounding of unit conversions
 	fmt.Fprintf(&b, "name = %s\n\n", strconv.Quote(t.Name))
 	fmt.Fprintf(&b, "[wing]\narea_m2 = %s\nspan_m = %s\n\n", f(t.WingArea), f(t.Span))
 	fmt.Fprintf(&b, "[polar]\ncd0 = %s\noswald = %s\n\n", f(t.CD0), f(t.Oswald))

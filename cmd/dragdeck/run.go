@@ -42,6 +42,7 @@ func commands() []command {
 		{"replay", "play snapshots in time order, analysed, at a chosen speed", runReplay},
 		{"follow", "watch a growing snapshot file; analyse rows as they arrive", runFollow},
 		{"report", "per-tail drag trends, flags and cost for a fleet", runReport},
+		{"fit", "fit a baseline drag polar to measured drag; writes a type file", runFit},
 		{"demo", "write the invented demo fleet, its type file and its truth", runDemo},
 	}
 }
