@@ -25,3 +25,15 @@ func median(v []float64) float64 {
 func Median(v []float64) float64 {
 	return median(append([]float64(nil), v...))
 }
+
+// RollingMedian returns, for each i, the median of v over the window
+// [i − half, i + half] clipped to the ends of v.
+func RollingMedian(v []float64, half int) []float64 {
+	out := make([]float64, len(v))
+	buf := make([]float64, 0, 2*half+1)
+	for i := range v {
+		buf = append(buf[:0], v[max(0, i-half):min(len(v), i+half+1)]...)
+		out[i] = median(buf)
+	}
+	return out
+}

@@ -285,3 +285,16 @@ func orEmpty(s string) string {
 	}
 	return s
 }
+
+func TestRollingMedian(t *testing.T) {
+	got := RollingMedian([]float64{1, 9, 2, 8, 3, 100, 4}, 1)
+	want := []float64{5, 2, 8, 3, 8, 4, 52}
+	for i := range want {
+		if got[i] != want[i] {
+			t.Fatalf("RollingMedian = %v, want %v", got, want)
+		}
+	}
+	if m := Median([]float64{3, 1, 2, 4}); m != 2.5 {
+		t.Errorf("Median of 1…4 = %g, want 2.5", m)
+	}
+}

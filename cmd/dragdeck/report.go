@@ -123,6 +123,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	format := fs.str("format", "F", "table", "table, csv or json")
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note): steps are matched to events, trends restart at them")
 	rejects := fs.str("rejects", "FILE", "", "write every rejected row to FILE")
+	plots := fs.str("plots", "DIR", "", "write a PNG per tail and fleet.png into DIR")
 	failOnFlag := fs.Bool("fail-on-flag", false, "exit 1 when any tail is flagged (for scheduled jobs)")
 	recent := fs.float("recent-days", "D", c.RecentDays, false, "window of the recent level, days")
 	drift := fs.float("drift-days", "D", c.DriftDays, false, "trailing window of the drift, days")
@@ -194,6 +195,12 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		}
 	}
 	fleet := model.AssessFleet(fd.Trends(evs, c), c)
+	if *plots != "" {
+		if err := writePlots(*plots, fleet); err != nil {
+			return usageErrorf("--plots: %v", err)
+		}
+		fmt.Fprintf(e.stderr, "dragdeck report: plots written to %s\n", *plots)
+	}
 	switch *format {
 	case "json":
 		err = writeReportJSON(e.stdout, fd, fleet, c, t)

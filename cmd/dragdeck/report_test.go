@@ -171,3 +171,23 @@ func TestReportEdgeFleets(t *testing.T) {
 		t.Errorf("table: %s", out)
 	}
 }
+
+func TestReportPlots(t *testing.T) {
+	dir := t.TempDir()
+	runArgs("demo", "--out", dir, "--tails", "5", "--days", "120", "--seed", "2")
+	plots := filepath.Join(dir, "plots")
+	code, _, errs := runArgs("report", "--events", filepath.Join(dir, feed.DemoEventsFile), "--plots", plots, filepath.Join(dir, "snapshots"))
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	files, _ := filepath.Glob(filepath.Join(plots, "*.png"))
+	if len(files) != 6 {
+		t.Fatalf("%d PNG files, want 5 tails + fleet.png: %v", len(files), files)
+	}
+	for _, f := range files {
+		b, _ := os.ReadFile(f)
+		if len(b) < 2000 || string(b[1:4]) != "PNG" {
+			t.Errorf("%s is not a PNG picture (%d bytes)", f, len(b))
+		}
+	}
+}

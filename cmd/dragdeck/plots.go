@@ -1,0 +1,189 @@
+package main
+
+import (
+	"fmt"
+	"image/color"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"dragdeck/model"
+)
+
+// Plot colours: one meaning each, the same in every picture.
+var (
+	colPoints  = color.RGBA{150, 150, 150, 255} // per-flight deviations
+	colMedian  = color.RGBA{30, 90, 160, 255}   // rolling median
+	colDrift   = color.RGBA{200, 110, 0, 255}   // drift line, growth
+	colStep    = color.RGBA{190, 30, 45, 255}   // steps up, flagged tails
+	colImprove = color.RGBA{30, 140, 70, 255}   // steps down (improvements)
+	colEvent   = color.RGBA{110, 70, 160, 255}  // maintenance events
+	colSteady  = color.RGBA{120, 140, 160, 255} // unflagged tails
+)
+
+// writePlots writes one PNG per tail and fleet.png into dir.
+func writePlots(dir string, f model.Fleet) error {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	for _, a := range f.Tails {
+		if len(a.Flights) == 0 {
+			continue
+		}
+		p := tailPlot(a)
+		if err := p.Save(24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, safeName(a.Tail)+".png")); err != nil {
+			return err
+		}
+	}
+	p := fleetPlot(f)
+	h := vg.Length(6+0.45*float64(len(f.Tails))) * vg.Centimeter
+	return p.Save(20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
+}
+
+// safeName keeps a tail name usable as a file name.
+func safeName(s string) string {
+	b := []byte(s)
+	for i, c := range b {
+		if !(c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' || c >= '0' && c <= '9' || c == '-' || c == '_') {
+			b[i] = '_'
+		}
+	}
+	return string(b)
+}
+
+func unix(tr model.TailTrend, i int) float64 { return float64(tr.Flights[i].Time.Unix()) }
+
+func tailPlot(a model.TailAssessment) *plot.Plot {
+	p := plot.New()
+	title := fmt.Sprintf("%s: drag deviation per flight", a.Tail)
+	if len(a.Flags) > 0 {
+		title += fmt.Sprintf("  (flags: %v)", a.Flags)
+	}
+	p.Title.Text = title
+	p.Y.Label.Text = "drag deviation from baseline, %"
+	p.X.Tick.Marker = plot.TimeTicks{Format: "2006-01"}
+	p.Add(plotter.NewGrid())
+
+	n := len(a.Flights)
+	pts := make(plotter.XYs, n)
+	ys := make([]float64, n)
+	for i, fl := range a.Flights {
+		pts[i] = plotter.XY{X: unix(a.TailTrend, i), Y: fl.DevPct}
+		ys[i] = fl.DevPct
+	}
+	sc, _ := plotter.NewScatter(pts)
+	sc.GlyphStyle = draw.GlyphStyle{Color: colPoints, Radius: vg.Points(1.2), Shape: draw.CircleGlyph{}}
+	p.Add(sc)
+	p.Legend.Add("flights", sc)
+
+	med := model.RollingMedian(ys, 10)
+	mline := make(plotter.XYs, n)
+	for i := range med {
+		mline[i] = plotter.XY{X: pts[i].X, Y: med[i]}
+	}
+	ml, _ := plotter.NewLine(mline)
+	ml.Color, ml.Width = colMedian, vg.Points(1.5)
+	p.Add(ml)
+	p.Legend.Add("rolling median (21 flights)", ml)
+
+	lo, hi := minMax(ys)
+	if !math.IsNaN(a.Drift.Slope) {
+		x0, x1 := float64(a.DriftFrom.Unix()), float64(a.DriftTo.Unix())
+		// the drift line passes through the median of its window
+		var inWin []float64
+		for i, fl := range a.Flights {
+			if !fl.Time.Before(a.DriftFrom) {
+				inWin = append(inWin, ys[i])
+			}
+		}
+		mid := model.Median(inWin)
+		days := (x1 - x0) / 86400
+		d, _ := plotter.NewLine(plotter.XYs{{X: x0, Y: mid - a.Drift.Slope/100*days/2}, {X: x1, Y: mid + a.Drift.Slope/100*days/2}})
+		d.Color, d.Width = colDrift, vg.Points(2.5)
+		p.Add(d)
+		p.Legend.Add(fmt.Sprintf("drift %+.2f pp/100 d", a.Drift.Slope), d)
+	}
+	for _, s := range a.Steps {
+		c := colStep
+		if s.SizePct < 0 {
+			c = colImprove
+		}
+		v := vline(float64(s.Time.Unix()), lo, hi, c, nil)
+		p.Add(v)
+		p.Legend.Add(fmt.Sprintf("step %s %+.1f pp", s.Time.Format("2006-01-02"), s.SizePct), v)
+	}
+	for _, e := range a.Events {
+		v := vline(float64(e.Time.Unix()), lo, hi, colEvent, []vg.Length{vg.Points(4), vg.Points(3)})
+		p.Add(v)
+		p.Legend.Add(fmt.Sprintf("%s %s", e.Kind, e.Time.Format("2006-01-02")), v)
+	}
+	// Room above the data for the legend, a line per entry.
+	entries := 2 + len(a.Steps) + len(a.Events)
+	if !math.IsNaN(a.Drift.Slope) {
+		entries++
+	}
+	p.Y.Min, p.Y.Max = lo-0.05*(hi-lo), hi+(hi-lo)*0.07*float64(entries+1)
+	p.Legend.Top, p.Legend.Left = true, true
+	return p
+}
+
+func vline(x, lo, hi float64, c color.Color, dashes []vg.Length) *plotter.Line {
+	l, _ := plotter.NewLine(plotter.XYs{{X: x, Y: lo}, {X: x, Y: hi}})
+	l.Color, l.Width, l.Dashes = c, vg.Points(1.5), dashes
+	return l
+}
+
+func minMax(v []float64) (float64, float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, x := range v {
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
+	}
+	return lo, hi
+}
+
+// fleetPlot draws each tail's recent deviation as a horizontal bar, highest
+// at the top, flagged tails in the flag colour.
+func fleetPlot(f model.Fleet) *plot.Plot {
+	p := plot.New()
+	p.Title.Text = fmt.Sprintf("Fleet: recent drag deviation per tail (%d flagged)", f.Flagged)
+	p.X.Label.Text = "recent drag deviation from baseline, %"
+	p.Add(plotter.NewGrid())
+	tails := append([]model.TailAssessment(nil), f.Tails...)
+	sort.SliceStable(tails, func(i, j int) bool { return nanLowF(tails[i].RecentPct) < nanLowF(tails[j].RecentPct) })
+	names := make([]string, len(tails))
+	for i, a := range tails {
+		names[i] = a.Tail
+		c := colSteady
+		if len(a.Flags) > 0 {
+			c = colStep
+		}
+		v := a.RecentPct
+		if math.IsNaN(v) {
+			v = 0
+		}
+		bar, _ := plotter.NewBarChart(plotter.Values{v}, vg.Points(7))
+		bar.Horizontal, bar.Color, bar.LineStyle.Width, bar.XMin = true, c, 0, float64(i)
+		p.Add(bar)
+	}
+	if !math.IsNaN(f.MedianRecentPct) {
+		l, _ := plotter.NewLine(plotter.XYs{{X: f.MedianRecentPct, Y: -0.5}, {X: f.MedianRecentPct, Y: float64(len(tails)) - 0.5}})
+		l.Color, l.Dashes = colMedian, []vg.Length{vg.Points(4), vg.Points(3)}
+		p.Add(l)
+		p.Legend.Add(fmt.Sprintf("fleet median %+.2f %%", f.MedianRecentPct), l)
+	}
+	p.NominalY(names...)
+	return p
+}
+
+func nanLowF(v float64) float64 {
+	if math.IsNaN(v) {
+		return math.Inf(-1)
+	}
+	return v
+}
