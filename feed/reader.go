@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"sync/atomic"
 )
 
 // Reader reads snapshot records from a CSV stream. Memory stays flat
@@ -128,6 +129,24 @@ type FileResult struct {
 // ReadFile reads the snapshot file at path, calling accept for each accepted
 // record and reject for each rejected row (either may be nil).
 func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResult {
+	return readFileCounting(path, nil, accept, reject)
+}
+
+// countingReader adds the bytes it reads to n.
+type countingReader struct {
+	r io.Reader
+	n *atomic.Int64
+}
+
+func (c countingReader) Read(p []byte) (int, error) {
+	k, err := c.r.Read(p)
+	c.n.Add(int64(k))
+	return k, err
+}
+
+// readFileCounting is ReadFile that also adds the bytes read to progress
+// (when not nil).
+func readFileCounting(path string, progress *atomic.Int64, accept func(Record), reject func(*RowError)) FileResult {
 	res := FileResult{Path: path}
 	f, err := os.Open(path)
 	if err != nil {
@@ -135,7 +154,11 @@ func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResu
 		return res
 	}
 	defer f.Close()
-	r := NewReader(f, path)
+	var src io.Reader = f
+	if progress != nil {
+		src = countingReader{f, progress}
+	}
+	r := NewReader(src, path)
 	for {
 		rec, err := r.Next()
 		if err == nil {

@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"dragdeck/feed"
+	"dragdeck/tui"
 )
 
 func runReplay(e *env, args []string) error {
@@ -51,6 +52,9 @@ stderr.`,
 			st.Read, st.Accepted, *tail, *flight)
 		return nil
 	}
+	if isTerminal(e.stdout) {
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithReplay(t, recs, *speed)))
+	}
 	p := feed.NewPlayer(recs, *speed)
 	p.MaxWait = *maxWait
 	sw := newSnapshotWriter(e.stdout, t)
@@ -79,6 +83,9 @@ each snapshot is one JSON object per line, as for replay. Stop with Ctrl-C.`,
 	t, err := loadType(*typ)
 	if err != nil {
 		return err
+	}
+	if isTerminal(e.stdout) {
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithLive(t, fs.Arg(0))))
 	}
 	sw := newSnapshotWriter(e.stdout, t)
 	fl := &feed.Follower{Path: fs.Arg(0), Notice: func(s string) { fmt.Fprintf(e.stderr, "dragdeck follow: %s\n", s) }}

@@ -35,6 +35,7 @@ type command struct {
 
 func commands() []command {
 	return []command{
+		{"dash", "the dashboard on snapshot files or folders", runDash},
 		{"point", "analyse one cruise snapshot: measured drag, split and excess", runPoint},
 		{"speed", "cruise optimum for a weight: best Mach numbers and altitudes", runSpeed},
 		{"bank", "bank-angle penalty table: load factor, drag and fuel", runBank},
@@ -52,6 +53,9 @@ func commands() []command {
 func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	e := &env{ctx: ctx, stdin: stdin, stdout: stdout, stderr: stderr}
 	if len(args) == 0 {
+		if isTerminal(stdout) {
+			return exitCode(e, "dragdeck", demoDashboard(e))
+		}
 		return exitCode(e, "dragdeck", runOverview(e))
 	}
 	name := args[0]
@@ -111,7 +115,8 @@ func topUsage(w io.Writer) {
 
 usage: dragdeck [command] [flags]
 
-With no command, dragdeck prints the built-in demo type's cruise table.
+With no command, dragdeck opens the dashboard on the built-in demo fleet (when
+stdout is not a terminal, it prints the demo type's cruise table instead).
 
 commands:
 `)

@@ -1,0 +1,82 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"sync/atomic"
+
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+	"github.com/muesli/termenv"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+	"dragdeck/tui"
+)
+
+// runDashboard runs the dashboard full screen until the user quits.
+func runDashboard(e *env, m *tui.Model) error {
+	if os.Getenv("NO_COLOR") != "" {
+		lipgloss.SetColorProfile(termenv.Ascii)
+	}
+	opts := []tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(e.ctx), tea.WithOutput(e.stdout)}
+	if f, ok := e.stdin.(*os.File); ok {
+		opts = append(opts, tea.WithInput(f))
+	}
+	if _, err := tea.NewProgram(m, opts...).Run(); err != nil && e.ctx.Err() == nil {
+		return &exitErr{code: exitUsage, err: fmt.Errorf("dashboard: %w", err)}
+	}
+	return nil
+}
+
+// demoDashboard opens the dashboard on the built-in demo fleet.
+func demoDashboard(e *env) error {
+	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Load: tui.DemoData}))
+}
+
+func runDash(e *env, args []string) error {
+	fs := newFlagSet("dash", "dragdeck dash [--type FILE] [--events FILE] PATH...",
+		`Opens the dashboard on snapshot files or folders (every *.csv inside): the
+Fleet screen lists every tail, most severe first; enter opens a tail, where
+enter on a flight replays it; tab moves between the Fleet, Tail, Flight,
+Cruise, Turns and About screens; ? lists every key; q quits. The files load in
+the background. The trend settings are those of 'dragdeck report'.`,
+		"dragdeck dash --events fleet/events.csv fleet/snapshots/")
+	typ := fs.typeFlag()
+	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note)")
+	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
+		return helpOK(err)
+	}
+	if !isTerminal(e.stdout) {
+		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
+	}
+	t, err := loadType(*typ)
+	if err != nil {
+		return err
+	}
+	files, err := inputFiles(fs)
+	if err != nil {
+		return err
+	}
+	var evs map[string][]model.Event
+	if *events != "" {
+		if evs, err = feed.ReadEvents(*events); err != nil {
+			return usageErrorf("--events: %v", err)
+		}
+	}
+	progress := &atomic.Int64{}
+	source := files[0]
+	if len(files) > 1 {
+		source = fmt.Sprintf("%s and %d more", files[0], len(files)-1)
+	}
+	load := func() (*tui.Data, error) {
+		fd := feed.LoadFleetWith(files, t, nil, feed.LoadOptions{KeepRecords: true, Progress: progress})
+		for _, r := range fd.Files {
+			if r.Err != nil {
+				return nil, r.Err
+			}
+		}
+		return tui.NewData(source, t, fd, evs, model.DefaultTrendConfig()), nil
+	}
+	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(files), Progress: progress, Load: load}))
+}

@@ -1,0 +1,330 @@
+package tui
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"time"
+
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+// openFlightMsg asks the root to replay a flight on the Flight screen.
+type openFlightMsg struct {
+	tail, flight string
+	recs         []feed.Record
+}
+
+type tailKeys struct {
+	Up, Down, Open, ZoomIn, ZoomOut, Left, Right key.Binding
+}
+
+var tailKeyMap = tailKeys{
+	Up: keyUp, Down: keyDown,
+	Open:    key.NewBinding(key.WithKeys("enter"), key.WithHelp("enter", "replay flight")),
+	ZoomIn:  key.NewBinding(key.WithKeys("+", "="), key.WithHelp("+", "zoom in")),
+	ZoomOut: key.NewBinding(key.WithKeys("-"), key.WithHelp("-", "zoom out")),
+	Left:    key.NewBinding(key.WithKeys("left", "h"), key.WithHelp("←/h", "earlier")),
+	Right:   key.NewBinding(key.WithKeys("right", "l"), key.WithHelp("→/l", "later")),
+}
+
+// tailScreen shows one tail: when its drag rose, why it is flagged, what it
+// costs, and its flights.
+type tailScreen struct {
+	data   *Data
+	st     Styles
+	w, h   int
+	a      model.TailAssessment
+	ok     bool
+	polar  []model.PolarPoint
+	fit    *model.PolarFit
+	cursor int // in the flights list, newest first
+	// the chart's time window: the last `window` days ending `back` days
+	// before the last flight
+	window, back float64
+	view         string
+}
+
+func newTailScreen(st Styles) *tailScreen { return &tailScreen{st: st} }
+
+func (s *tailScreen) Title() string { return "Tail" }
+
+func (s *tailScreen) Init() tea.Cmd { return nil }
+
+func (s *tailScreen) ShortHelp() []key.Binding {
+	return []key.Binding{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open, tailKeyMap.ZoomIn, tailKeyMap.ZoomOut}
+}
+
+func (s *tailScreen) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open}, {tailKeyMap.ZoomIn, tailKeyMap.ZoomOut, tailKeyMap.Left, tailKeyMap.Right}}
+}
+
+func (s *tailScreen) SetData(d *Data) { s.data = d }
+
+// SetTail shows tail name.
+func (s *tailScreen) SetTail(name string) {
+	s.a, s.ok = s.data.tail(name)
+	s.cursor, s.back, s.fit, s.polar = 0, 0, nil, s.polar[:0]
+	s.window = 0
+	if s.ok && len(s.a.Flights) > 0 {
+		s.window = math.Max(1, s.a.Last.Sub(s.a.First).Hours()/24)
+	}
+	for _, r := range s.data.Records[name] {
+		p := model.Analyze(s.data.Type, r.Snap)
+		if s.data.Config.Usable(model.TrendPoint{DevPct: p.DragDevPct, Bank: r.Snap.Bank, VS: r.Snap.VS, Accel: r.Snap.Accel}) == "" {
+			s.polar = append(s.polar, model.PolarPoint{CL: p.CL, CDMeasured: p.CDMeasured, CDWave: p.CDWave})
+		}
+	}
+	if f, err := model.FitPolar(s.polar); err == nil {
+		s.fit = &f
+	}
+	s.render()
+}
+
+func (s *tailScreen) SetSize(w, h int) {
+	s.w, s.h = w, h
+	s.render()
+}
+
+// flightAt returns the i-th flight, newest first.
+func (s *tailScreen) flightAt(i int) (model.FlightPoint, bool) {
+	n := len(s.a.Flights)
+	if i < 0 || i >= n {
+		return model.FlightPoint{}, false
+	}
+	return s.a.Flights[n-1-i], true
+}
+
+func (s *tailScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
+	km, ok := msg.(tea.KeyMsg)
+	if !ok || !s.ok {
+		return s, nil
+	}
+	total := math.Max(1, s.a.Last.Sub(s.a.First).Hours()/24)
+	switch {
+	case key.Matches(km, tailKeyMap.Up):
+		s.cursor = max(0, s.cursor-1)
+	case key.Matches(km, tailKeyMap.Down):
+		s.cursor = min(len(s.a.Flights)-1, s.cursor+1)
+	case key.Matches(km, tailKeyMap.ZoomIn):
+		s.window = math.Max(7, s.window/2)
+	case key.Matches(km, tailKeyMap.ZoomOut):
+		s.window = math.Min(total, s.window*2)
+	case key.Matches(km, tailKeyMap.Left):
+		s.back = math.Min(total-s.window, s.back+s.window/4)
+	case key.Matches(km, tailKeyMap.Right):
+		s.back = math.Max(0, s.back-s.window/4)
+	case key.Matches(km, tailKeyMap.Open):
+		f, ok := s.flightAt(s.cursor)
+		if !ok {
+			return s, nil
+		}
+		recs := s.data.flightRecords(s.a.Tail, f, s.data.Config.FlightGap)
+		return s, func() tea.Msg { return openFlightMsg{tail: s.a.Tail, flight: f.Flight, recs: recs} }
+	default:
+		return s, nil
+	}
+	s.back = math.Max(0, s.back)
+	s.render()
+	return s, nil
+}
+
+func (s *tailScreen) View() string { return s.view }
+
+func (s *tailScreen) render() {
+	if s.w <= 0 || s.h <= 0 {
+		return
+	}
+	if s.data == nil || !s.ok {
+		s.view = placeholder(s.w, s.h, "no tail chosen: pick one on the Fleet screen (enter)")
+		return
+	}
+	a := s.a
+	title := s.st.Title.Render(a.Tail)
+	if len(a.Flags) > 0 {
+		title += "  " + s.st.Flag.Render("flags: "+strings.Join(a.Flags, " "))
+	} else {
+		title += "  " + s.st.Improve.Render("no flags")
+	}
+	title += s.st.Muted.Render(fmt.Sprintf("  %d flights, %d snapshots, %s … %s", len(a.Flights), a.Points,
+		a.First.Format("2006-01-02"), a.Last.Format("2006-01-02")))
+	if len(a.Flights) == 0 {
+		s.view = title + "\n" + placeholder(s.w, s.h-1, "no usable snapshots for this tail")
+		return
+	}
+	// rows: title 1, deviation chart, then polar | facts, then flights
+	flightRows := max(2, min(6, s.h/6))
+	rest := s.h - 1 - flightRows - 1
+	devH := max(5, rest*55/100)
+	lowH := max(4, rest-devH)
+	dev := s.deviationChart(s.w, devH)
+	leftW := s.w * 45 / 100
+	polar := s.polarChart(leftW, lowH)
+	facts := s.facts(s.w-leftW-1, lowH)
+	low := lipgloss.JoinHorizontal(lipgloss.Top, polar, " ", facts)
+	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(
+		lipgloss.JoinVertical(lipgloss.Left, title, dev, low, s.flightList(flightRows+1)))
+}
+
+func (s *tailScreen) deviationChart(w, h int) string {
+	a := s.a
+	end := a.Last.Add(-time.Duration(s.back * 24 * float64(time.Hour)))
+	start := end.Add(-time.Duration(s.window * 24 * float64(time.Hour)))
+	x := func(t time.Time) float64 { return float64(t.Unix()) / 86400 }
+	var pts, med [][2]float64
+	var ys []float64
+	devs := make([]float64, len(a.Flights))
+	for i, f := range a.Flights {
+		devs[i] = f.DevPct
+	}
+	rolling := model.RollingMedian(devs, 10)
+	for i, f := range a.Flights {
+		if f.Time.Before(start) || f.Time.After(end) {
+			continue
+		}
+		pts = append(pts, [2]float64{x(f.Time), f.DevPct})
+		med = append(med, [2]float64{x(f.Time), rolling[i]})
+		ys = append(ys, f.DevPct)
+	}
+	lo, hi := span(ys, 0.05, 0.5)
+	spec := chartSpec{w: w, h: h, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
+		xFmt: func(_ int, v float64) string { return time.Unix(int64(v*86400), 0).UTC().Format("2006-01") },
+		yFmt: func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
+		axis: s.st.Muted,
+		series: []series{
+			{points: pts, style: s.st.Muted},
+			{points: med, line: true, style: s.st.Accent},
+		}}
+	if d := a.Drift; !math.IsNaN(d.Slope) {
+		var inWin []float64
+		for _, f := range a.Flights {
+			if !f.Time.Before(a.DriftFrom) {
+				inWin = append(inWin, f.DevPct)
+			}
+		}
+		mid := model.Median(inWin)
+		days := a.DriftTo.Sub(a.DriftFrom).Hours() / 24
+		spec.series = append(spec.series, series{line: true, style: s.st.Drift, points: [][2]float64{
+			{x(a.DriftFrom), mid - d.Slope/100*days/2}, {x(a.DriftTo), mid + d.Slope/100*days/2}}})
+	}
+	for _, st := range a.Steps {
+		style := s.st.Flag
+		if st.SizePct < 0 {
+			style = s.st.Improve
+		}
+		spec.marks = append(spec.marks, vmark{x: x(st.Time), style: style})
+	}
+	for _, e := range a.Events {
+		spec.marks = append(spec.marks, vmark{x: x(e.Time), style: s.st.Event})
+	}
+	legend := s.st.Muted.Render("drag deviation per flight, % · ") + s.st.Accent.Render("rolling median") + " · " +
+		s.st.Drift.Render("drift") + " · " + s.st.Flag.Render("step up") + " · " + s.st.Improve.Render("step down") + " · " +
+		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→)", s.window))
+	return lipgloss.NewStyle().MaxWidth(w).Render(legend) + "\n" + spec.render("no flights in this window")
+}
+
+func (s *tailScreen) polarChart(w, h int) string {
+	if len(s.polar) == 0 {
+		return placeholder(w, h, "no points")
+	}
+	t := s.data.Type
+	pts := make([][2]float64, len(s.polar))
+	xs, ys := make([]float64, len(s.polar)), make([]float64, len(s.polar))
+	for i, p := range s.polar {
+		pts[i] = [2]float64{p.CL * p.CL, p.CDMeasured - p.CDWave}
+		xs[i], ys[i] = pts[i][0], pts[i][1]
+	}
+	x0, x1 := span(xs, 0.05, 0.01)
+	y0, y1 := span(ys, 0.05, 0.0005)
+	line := func(cd0, k float64) [][2]float64 { return [][2]float64{{x0, cd0 + k*x0}, {x1, cd0 + k*x1}} }
+	spec := chartSpec{w: w, h: h - 1, minX: x0, maxX: x1, minY: y0, maxY: y1, axis: s.st.Muted,
+		xFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.2f", v) },
+		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.4f", v) },
+		series: []series{{points: pts, style: s.st.Muted}, {points: line(t.CD0, t.K()), line: true, style: s.st.Base}}}
+	legend := s.st.Muted.Render("CD−wave vs CL²: ") + s.st.Base.Render("baseline")
+	if s.fit != nil {
+		spec.series = append(spec.series, series{points: line(s.fit.CD0, s.fit.K), line: true, style: s.st.Flag})
+		legend += " " + s.st.Flag.Render("this tail")
+	}
+	return lipgloss.NewStyle().MaxWidth(w).Render(legend) + "\n" + spec.render("no points")
+}
+
+// facts are the numbers behind the flags and the cost.
+func (s *tailScreen) facts(w, h int) string {
+	a, c, f := s.a, s.data.Config, s.data.Fleet
+	var lines []string
+	add := func(style lipgloss.Style, format string, args ...any) {
+		lines = append(lines, style.Render(truncate(fmt.Sprintf(format, args...), w)))
+	}
+	mark := func(flag string) lipgloss.Style {
+		for _, x := range a.Flags {
+			if x == flag {
+				return s.st.Flag
+			}
+		}
+		return s.st.Text
+	}
+	add(mark(model.FlagLevel), "level  %s %% last %g d · flag ≥ %s", fmtSigned(a.RecentPct, 2), c.RecentDays, fmtSigned(f.MedianRecentPct+c.LevelPP, 2))
+	if math.IsNaN(a.Drift.Slope) {
+		add(s.st.Muted, "growth none: too little data since the last step")
+	} else {
+		add(mark(model.FlagGrowth), "growth %s pp/100 d [%s, %s] · flag ≥ %g pp/%g d",
+			fmtSigned(a.Drift.Slope, 2), fmtSigned(a.Drift.Lo, 2), fmtSigned(a.Drift.Hi, 2), c.GrowthPP, c.DriftDays)
+	}
+	if len(a.Steps) == 0 {
+		add(s.st.Text, "step   none · flag ≥ %+g pp", c.StepPP)
+	}
+	for _, st := range a.Steps {
+		style := mark(model.FlagStep)
+		if st.SizePct < 0 {
+			style = s.st.Improve
+		}
+		ev := ""
+		if st.Event != nil {
+			ev = " · " + st.Event.Kind
+		}
+		add(style, "step   %s %s ± %.2f pp%s", st.Time.Format("2006-01-02"), fmtSigned(st.SizePct, 2), st.SE, ev)
+	}
+	add(s.st.Text, "cost   %s t fuel · %s t CO2 a year", fmtSigned(a.ExcessFuel/1000, 0), fmtSigned(a.CO2/1000, 0))
+	if c.FuelPrice > 0 {
+		add(s.st.Text, "       %s a year at %g per kg", fmtSigned(a.Money, 0), c.FuelPrice)
+	}
+	if s.fit != nil {
+		add(s.st.Muted, "polar  CD0 %.5f (%.5f) · k %.4f (%.4f)", s.fit.CD0, s.data.Type.CD0, s.fit.K, s.data.Type.K())
+	}
+	for len(lines) < h {
+		lines = append(lines, "")
+	}
+	return strings.Join(lines[:h], "\n")
+}
+
+func (s *tailScreen) flightList(h int) string {
+	lines := []string{s.st.Header.Render("flights, newest first (enter replays)")}
+	first := max(0, s.cursor-(h-2))
+	for i := first; i < first+h-1; i++ {
+		f, ok := s.flightAt(i)
+		if !ok {
+			break
+		}
+		line := fmt.Sprintf("%s  %-8s  %s %%  (%d snapshot%s)", f.Time.Format("2006-01-02 15:04"), f.Flight, fmtSigned(f.DevPct, 2), f.N, plural(f.N))
+		if i == s.cursor {
+			line = s.st.Selected.Render(truncate(line, s.w))
+		} else {
+			line = truncate(line, s.w)
+		}
+		lines = append(lines, line)
+	}
+	return strings.Join(lines, "\n")
+}
+
+func plural(n int) string {
+	if n == 1 {
+		return ""
+	}
+	return "s"
+}
