@@ -7,24 +7,9 @@ import (
 	"testing"
 	"time"
 
-	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/exp/golden"
 	"github.com/charmbracelet/x/exp/teatest"
 )
-
-func keyMsg(k string) tea.KeyMsg {
-	switch k {
-	case "enter":
-		return tea.KeyMsg{Type: tea.KeyEnter}
-	case "tab":
-		return tea.KeyMsg{Type: tea.KeyTab}
-	case "down":
-		return tea.KeyMsg{Type: tea.KeyDown}
-	case "shift+tab":
-		return tea.KeyMsg{Type: tea.KeyShiftTab}
-	}
-	return tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(k)}
-}
 
 // step is a key and text that appears on the screen once it took effect
 // (a key's command may finish after the next key, so each waits).

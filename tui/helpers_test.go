@@ -61,25 +61,7 @@ func sized(d *Data, w, h int, opts ...Option) *Model {
 // (ticks excepted), as the bubbletea runtime would.
 func press(m *Model, keys ...string) {
 	for _, k := range keys {
-		var msg tea.KeyMsg
-		switch k {
-		case "enter":
-			msg = tea.KeyMsg{Type: tea.KeyEnter}
-		case "esc":
-			msg = tea.KeyMsg{Type: tea.KeyEsc}
-		case "tab":
-			msg = tea.KeyMsg{Type: tea.KeyTab}
-		case "shift+tab":
-			msg = tea.KeyMsg{Type: tea.KeyShiftTab}
-		case "up":
-			msg = tea.KeyMsg{Type: tea.KeyUp}
-		case "down":
-			msg = tea.KeyMsg{Type: tea.KeyDown}
-		case "space":
-			msg = tea.KeyMsg{Type: tea.KeySpace, Runes: []rune{' '}}
-		default:
-			msg = tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(k)}
-		}
+		msg := keyMsg(k)
 		_, cmd := m.Update(msg)
 		drain(m, cmd)
 	}
@@ -130,4 +112,17 @@ func checkFrame(t *testing.T, m *Model, w, h int) string {
 		}
 	}
 	return v
+}
+
+// keyMsg is the key message of a key name.
+func keyMsg(k string) tea.KeyMsg {
+	types := map[string]tea.KeyType{"enter": tea.KeyEnter, "esc": tea.KeyEsc, "tab": tea.KeyTab,
+		"shift+tab": tea.KeyShiftTab, "up": tea.KeyUp, "down": tea.KeyDown}
+	if t, ok := types[k]; ok {
+		return tea.KeyMsg{Type: t}
+	}
+	if k == "space" {
+		return tea.KeyMsg{Type: tea.KeySpace, Runes: []rune{' '}}
+	}
+	return tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune(k)}
 }

@@ -50,19 +50,13 @@ the background. The trend settings are those of 'dragdeck report'.`,
 	if !isTerminal(e.stdout) {
 		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
 	}
-	t, err := loadType(*typ)
+	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
 	}
-	files, err := inputFiles(fs)
+	evs, err := readEvents(*events)
 	if err != nil {
 		return err
-	}
-	var evs map[string][]model.Event
-	if *events != "" {
-		if evs, err = feed.ReadEvents(*events); err != nil {
-			return usageErrorf("--events: %v", err)
-		}
 	}
 	progress := &atomic.Int64{}
 	source := files[0]

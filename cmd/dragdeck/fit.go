@@ -72,11 +72,7 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 			return usageErrorf("--to: %v", err)
 		}
 	}
-	t, err := loadType(*typ)
-	if err != nil {
-		return err
-	}
-	files, err := inputFiles(fs)
+	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
 	}

@@ -146,6 +146,32 @@ func loadType(path string) (*model.Type, error) {
 	return t, nil
 }
 
+// typeAndFiles loads --type and expands the PATH arguments, the preamble of
+// every command that reads snapshot files.
+func typeAndFiles(fs *flagSet, typ string) (*model.Type, []string, error) {
+	t, err := loadType(typ)
+	if err != nil {
+		return nil, nil, err
+	}
+	files, err := inputFiles(fs)
+	if err != nil {
+		return nil, nil, err
+	}
+	return t, files, nil
+}
+
+// readEvents reads --events, if given.
+func readEvents(path string) (map[string][]model.Event, error) {
+	if path == "" {
+		return nil, nil
+	}
+	evs, err := feed.ReadEvents(path)
+	if err != nil {
+		return nil, usageErrorf("--events: %v", err)
+	}
+	return evs, nil
+}
+
 // flagError turns a snapshot validation error into a usage error that names
 // the flag (the column name with dashes).
 func flagError(e *feed.SnapshotError) error {

@@ -30,11 +30,7 @@ stderr.`,
 	if math.IsNaN(*speed) || math.IsInf(*speed, 0) || *speed < 0 {
 		return usageErrorf("--speed: must be ≥ 0, got %g", *speed)
 	}
-	t, err := loadType(*typ)
-	if err != nil {
-		return err
-	}
-	files, err := inputFiles(fs)
+	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
 	}

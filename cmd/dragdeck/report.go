@@ -157,19 +157,13 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	c.MaxAbsDevPct, c.MaxBank, c.MaxVS, c.MaxAccel = *maxDev, feed.RadFromDeg(*maxBank), feed.MPerSFromFtPerMin(*maxVS), feed.MPerS2FromKtPerMin(*maxAcc)
 	c.MinDriftDays = math.Min(c.MinDriftDays, c.DriftDays)
 
-	t, err := loadType(*typ)
+	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
 	}
-	files, err := inputFiles(fs)
+	evs, err := readEvents(*events)
 	if err != nil {
 		return err
-	}
-	var evs map[string][]model.Event
-	if *events != "" {
-		if evs, err = feed.ReadEvents(*events); err != nil {
-			return usageErrorf("--events: %v", err)
-		}
 	}
 	var rejOut io.Writer
 	if *rejects != "" {
