@@ -10,7 +10,6 @@ import (
 	"github.com/muesli/termenv"
 
 	"dragdeck/feed"
-	"dragdeck/model"
 	"dragdeck/tui"
 )
 
@@ -40,12 +39,17 @@ func runDash(e *env, args []string) error {
 Fleet screen lists every tail, most severe first; enter opens a tail, where
 enter on a flight replays it; tab moves between the Fleet, Tail, Flight,
 Cruise, Turns and About screens; ? lists every key; q quits. The files load in
-the background. The trend settings are those of 'dragdeck report'.`,
+the background. The trend settings and limits are those of 'dragdeck report'.`,
 		"dragdeck dash --events fleet/events.csv fleet/snapshots/")
 	typ := fs.typeFlag()
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note)")
+	trend := trendFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
+	}
+	c, err := trend()
+	if err != nil {
+		return err
 	}
 	if !isTerminal(e.stdout) {
 		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
@@ -70,7 +74,7 @@ the background. The trend settings are those of 'dragdeck report'.`,
 				return nil, r.Err
 			}
 		}
-		return tui.NewData(source, t, fd, evs, model.DefaultTrendConfig()), nil
+		return tui.NewData(source, t, fd, evs, c), nil
 	}
 	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(files), Progress: progress, Load: load}))
 }

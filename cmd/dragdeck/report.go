@@ -102,8 +102,39 @@ func newTailJSON(a model.TailAssessment, price float64) tailJSON {
 	return j
 }
 
-func runReport(e *env, args []string) error {
+// trendFlags declares the trend settings of report and dash; the function
+// it returns reads and checks them after parsing.
+func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 	c := model.DefaultTrendConfig()
+	recent := fs.float("recent-days", "D", c.RecentDays, false, "window of the recent level, days")
+	drift := fs.float("drift-days", "D", c.DriftDays, false, "trailing window of the drift, days")
+	levelPP := fs.float("level-pp", "P", c.LevelPP, false, "level flag: percentage points above the fleet median")
+	growthPP := fs.float("growth-pp", "P", c.GrowthPP, false, "growth flag: percentage points over the drift window")
+	stepPP := fs.float("step-pp", "P", c.StepPP, false, "step flag: smallest increase, percentage points")
+	hours := fs.float("cruise-hours", "H", c.CruiseHours, false, "cruise hours per tail per year")
+	price := fs.float("fuel-price-per-kg", "P", 0, false, "fuel price per kg, for a money figure (any currency)")
+	maxDev := fs.float("max-dev-pct", "P", c.MaxAbsDevPct, false, "points with a larger |deviation| are implausible, %")
+	maxBank := fs.float("max-bank-deg", "B", 30, false, "points with a larger |bank| are left out, degrees")
+	maxVS := fs.float("max-vs-fpm", "V", 1500, false, "points with a larger |vertical speed| are left out, ft/min")
+	maxAcc := fs.float("max-accel-kt-per-min", "A", 5, false, "points with a larger |acceleration| are left out, kt/min")
+	return func() (model.TrendConfig, error) {
+		for name, v := range map[string]float64{"recent-days": *recent, "drift-days": *drift, "level-pp": *levelPP, "growth-pp": *growthPP,
+			"step-pp": *stepPP, "cruise-hours": *hours, "max-dev-pct": *maxDev, "max-bank-deg": *maxBank, "max-vs-fpm": *maxVS, "max-accel-kt-per-min": *maxAcc} {
+			if math.IsNaN(v) || math.IsInf(v, 0) || v <= 0 {
+				return c, usageErrorf("--%s: must be > 0, got %g", name, v)
+			}
+		}
+		if math.IsNaN(*price) || math.IsInf(*price, 0) || *price < 0 {
+			return c, usageErrorf("--fuel-price-per-kg: must be ≥ 0, got %g", *price)
+		}
+		c.RecentDays, c.DriftDays, c.LevelPP, c.GrowthPP, c.StepPP, c.CruiseHours, c.FuelPrice = *recent, *drift, *levelPP, *growthPP, *stepPP, *hours, *price
+		c.MaxAbsDevPct, c.MaxBank, c.MaxVS, c.MaxAccel = *maxDev, feed.RadFromDeg(*maxBank), feed.MPerSFromFtPerMin(*maxVS), feed.MPerS2FromKtPerMin(*maxAcc)
+		c.MinDriftDays = math.Min(c.MinDriftDays, c.DriftDays)
+		return c, nil
+	}
+}
+
+func runReport(e *env, args []string) error {
 	fs := newFlagSet("report", "dragdeck report [--type FILE] [--format table|csv|json] [--events FILE] [flags] PATH...",
 		`Per-tail drag trend and flags for a fleet (DESIGN.md §4.8–§4.10). Every
 accepted snapshot is analysed against the baseline polar; points beyond the
@@ -125,38 +156,19 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	rejects := fs.str("rejects", "FILE", "", "write every rejected row to FILE")
 	plots := fs.str("plots", "DIR", "", "write a PNG per tail and fleet.png into DIR")
 	failOnFlag := fs.Bool("fail-on-flag", false, "exit 1 when any tail is flagged (for scheduled jobs)")
-	recent := fs.float("recent-days", "D", c.RecentDays, false, "window of the recent level, days")
-	drift := fs.float("drift-days", "D", c.DriftDays, false, "trailing window of the drift, days")
-	levelPP := fs.float("level-pp", "P", c.LevelPP, false, "level flag: percentage points above the fleet median")
-	growthPP := fs.float("growth-pp", "P", c.GrowthPP, false, "growth flag: percentage points over the drift window")
-	stepPP := fs.float("step-pp", "P", c.StepPP, false, "step flag: smallest increase, percentage points")
-	hours := fs.float("cruise-hours", "H", c.CruiseHours, false, "cruise hours per tail per year")
-	price := fs.float("fuel-price-per-kg", "P", 0, false, "fuel price per kg, for a money figure (any currency)")
-	maxDev := fs.float("max-dev-pct", "P", c.MaxAbsDevPct, false, "points with a larger |deviation| are implausible, %")
-	maxBank := fs.float("max-bank-deg", "B", 30, false, "points with a larger |bank| are left out, degrees")
-	maxVS := fs.float("max-vs-fpm", "V", 1500, false, "points with a larger |vertical speed| are left out, ft/min")
-	maxAcc := fs.float("max-accel-kt-per-min", "A", 5, false, "points with a larger |acceleration| are left out, kt/min")
+	trend := trendFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
-	for name, v := range map[string]float64{"recent-days": *recent, "drift-days": *drift, "level-pp": *levelPP, "growth-pp": *growthPP,
-		"step-pp": *stepPP, "cruise-hours": *hours, "max-dev-pct": *maxDev, "max-bank-deg": *maxBank, "max-vs-fpm": *maxVS, "max-accel-kt-per-min": *maxAcc} {
-		if math.IsNaN(v) || math.IsInf(v, 0) || v <= 0 {
-			return usageErrorf("--%s: must be > 0, got %g", name, v)
-		}
-	}
-	if math.IsNaN(*price) || *price < 0 {
-		return usageErrorf("--fuel-price-per-kg: must be ≥ 0, got %g", *price)
+	c, err := trend()
+	if err != nil {
+		return err
 	}
 	switch *format {
 	case "table", "csv", "json":
 	default:
 		return usageErrorf("--format: %q is not table, csv or json", *format)
 	}
-	c.RecentDays, c.DriftDays, c.LevelPP, c.GrowthPP, c.StepPP, c.CruiseHours, c.FuelPrice = *recent, *drift, *levelPP, *growthPP, *stepPP, *hours, *price
-	c.MaxAbsDevPct, c.MaxBank, c.MaxVS, c.MaxAccel = *maxDev, feed.RadFromDeg(*maxBank), feed.MPerSFromFtPerMin(*maxVS), feed.MPerS2FromKtPerMin(*maxAcc)
-	c.MinDriftDays = math.Min(c.MinDriftDays, c.DriftDays)
-
 	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
@@ -199,7 +211,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	case "json":
 		err = writeReportJSON(e.stdout, fd, fleet, c, t)
 	case "csv":
-		err = writeReportCSV(e.stdout, fleet, *price)
+		err = writeReportCSV(e.stdout, fleet, c.FuelPrice)
 	default:
 		writeReportTable(e.stdout, fd, fleet, t, c, len(files))
 	}
