@@ -142,6 +142,9 @@ func (m *Model) setData(d *Data) {
 	m.turns.SetCondition(d.Type, m.cond)
 }
 
+// Err is the error that stopped loading, if any.
+func (m *Model) Err() error { return m.loadErr }
+
 // Init starts loading, a replay or a live feed.
 func (m *Model) Init() tea.Cmd {
 	var cmds []tea.Cmd
@@ -336,7 +339,7 @@ func (m *Model) View() string {
 	ch := max(1, m.h-1-m.helpHeight())
 	switch {
 	case m.loadErr != nil:
-		body = placeholder(m.w, ch, "could not load: "+m.loadErr.Error())
+		body = placeholder(m.w, ch, "could not load: "+m.loadErr.Error()+" (q quits)")
 	case m.loading && m.active != scrAbout:
 		body = m.loadingView(ch)
 	}

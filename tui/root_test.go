@@ -2,6 +2,7 @@ package tui
 
 import (
 	"context"
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -139,3 +140,15 @@ func TestConditionFollowsFlight(t *testing.T) {
 		t.Errorf("+ on Cruise: weight %g → %g (root %g)", before, m.cruise.c.Weight, m.cond.Weight)
 	}
 }
+
+func TestLoadError(t *testing.T) {
+	l := &Loader{Load: func() (*Data, error) { return nil, errLoad }}
+	m := New(context.Background(), nil, l)
+	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
+	drain(m, m.Init())
+	if m.Err() != errLoad || !strings.Contains(m.View(), "could not load: x.csv:1: missing required column") {
+		t.Errorf("err %v, view:\n%s", m.Err(), m.View())
+	}
+}
+
+var errLoad = errors.New("x.csv:1: missing required column alt_ft (or alt_m)")

@@ -25,6 +25,9 @@ func runDashboard(e *env, m *tui.Model) error {
 	if _, err := tea.NewProgram(m, opts...).Run(); err != nil && e.ctx.Err() == nil {
 		return &exitErr{code: exitUsage, err: fmt.Errorf("dashboard: %w", err)}
 	}
+	if err := m.Err(); err != nil {
+		return usageErrorf("%v", err)
+	}
 	return nil
 }
 
@@ -51,12 +54,12 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	if err != nil {
 		return err
 	}
-	if !isTerminal(e.stdout) {
-		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
-	}
 	t, files, err := typeAndFiles(fs, *typ)
 	if err != nil {
 		return err
+	}
+	if !isTerminal(e.stdout) {
+		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
 	}
 	evs, err := readEvents(*events)
 	if err != nil {
