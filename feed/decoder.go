@@ -55,9 +55,6 @@ func (d *Decoder) Unknown() []string {
 	return d.hdr.unknown
 }
 
-// HasHeader reports whether the header has been read.
-func (d *Decoder) HasHeader() bool { return d.hdr != nil }
-
 // Line feeds physical line n (1-based, without its line terminator). It
 // returns ok = true and the record for an accepted row; a *RowError for a
 // rejected row; a *FileError when the file cannot be read as snapshots; or

@@ -9,8 +9,6 @@ import (
 	"strconv"
 	"time"
 
-	"gonum.org/v1/gonum/stat"
-
 	"dragdeck/model"
 )
 
@@ -260,12 +258,7 @@ func (g *demoGen) assignRoles() {
 	}
 	// Expected flags by the rules of DESIGN.md §4.9, with levels kept away
 	// from the threshold so that the truth is unambiguous.
-	levels := make([]float64, n)
-	for i := range g.tails {
-		levels[i] = g.tails[i].RecentLevelPct
-	}
-	sort.Float64s(levels)
-	median := stat.Quantile(0.5, stat.Empirical, levels, nil)
+	median := g.fleetMedian()
 	for i := range g.tails {
 		tt := &g.tails[i]
 		limit := median + truthLevelPP
@@ -293,14 +286,14 @@ func (g *demoGen) assignRoles() {
 	}
 }
 
-// fleetMedian returns the median recent level of the truth.
+// fleetMedian returns the median recent level of the truth, by the same
+// definition the fleet assessment uses (model.Median).
 func (g *demoGen) fleetMedian() float64 {
 	levels := make([]float64, len(g.tails))
 	for i := range g.tails {
 		levels[i] = g.tails[i].RecentLevelPct
 	}
-	sort.Float64s(levels)
-	return stat.Quantile(0.5, stat.Empirical, levels, nil)
+	return model.Median(levels)
 }
 
 // demoRow is one snapshot before it is written.

@@ -5,11 +5,8 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
-	"sort"
 	"testing"
 	"time"
-
-	"gonum.org/v1/gonum/stat"
 
 	"dragdeck/model"
 )
@@ -122,8 +119,7 @@ func TestDemoRecoversTruth(t *testing.T) {
 	for _, tt := range d.Truth.Tails {
 		roles[tt.Role] = true
 		devs := recent[tt.Tail]
-		sort.Float64s(devs)
-		got := stat.Quantile(0.5, stat.Empirical, devs, nil)
+		got := model.Median(devs)
 		if len(devs) < 20 {
 			t.Errorf("%s: only %d recent points", tt.Tail, len(devs))
 			continue
@@ -164,8 +160,7 @@ func TestDemoTraces(t *testing.T) {
 		}
 		// Through climb, step climb and turns the energy method keeps the
 		// deviation at the tail's truth (noise and rounding aside).
-		sort.Float64s(devs)
-		med := stat.Quantile(0.5, stat.Empirical, devs, nil)
+		med := model.Median(devs)
 		var want float64
 		for _, tt := range truth.Tails {
 			if tt.Tail == tr.Tail {

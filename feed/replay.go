@@ -51,9 +51,6 @@ func NewPlayer(recs []Record, speed float64) *Player {
 	return &Player{recs: recs, Speed: speed}
 }
 
-// Len is the number of records; Pos the index of the next one.
-func (p *Player) Len() int { return len(p.recs) }
-
 // Pos is the index of the next record to play.
 func (p *Player) Pos() int { return p.pos }
 

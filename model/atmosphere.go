@@ -7,11 +7,9 @@ import "math"
 const (
 	tropopause   = 11000.0 // m
 	stratosphere = 20000.0 // m, top of the isothermal layer
-	isaTop       = 32000.0 // m, top of the modelled range
 	lapseTropo   = -0.0065 // K/m, 0–11 km
 	lapseStrato  = 0.001   // K/m, 20–32 km
 	tTropopause  = 216.65  // K, 11–20 km
-	isaBottom    = -5000.0 // m, lowest altitude of the modelled range
 )
 
 // pressure at the layer bases, Pa, from the layer equations themselves.
@@ -41,9 +39,6 @@ func ISA(h float64) (T, p float64) {
 		return T, pStratosphere * math.Pow(T/tTropopause, -G0/(lapseStrato*R))
 	}
 }
-
-// ISAInRange reports whether h (m) lies in the modelled −5 … 32 km.
-func ISAInRange(h float64) bool { return h >= isaBottom && h <= isaTop }
 
 // Air is the state of the air at one pressure altitude and temperature.
 type Air struct {
