@@ -41,6 +41,8 @@ type fleetScreen struct {
 	rows      []model.TailAssessment // after the filter
 	sparkLo   float64
 	sparkHi   float64
+	sparks    map[string]string // per tail, drawn for width sparkW
+	sparkW    int
 	view      string
 }
 
@@ -80,6 +82,7 @@ func (s *fleetScreen) SetData(d *Data) {
 		}
 	}
 	s.sparkLo, s.sparkHi = percentileRange(all)
+	s.sparks, s.sparkW = nil, -1
 	s.applyFilter()
 }
 
@@ -244,11 +247,7 @@ func (s *fleetScreen) render() {
 		if flags == "" {
 			flags = "-"
 		}
-		devs := make([]float64, len(a.Flights))
-		for j, f := range a.Flights {
-			devs[j] = f.DevPct
-		}
-		spk := sparkline(devs, spark, s.sparkLo, s.sparkHi)
+		spk := s.sparkFor(a, spark)
 		num := pad(a.Tail, colTail) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
 		fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + " "
 		var line string
@@ -264,6 +263,24 @@ func (s *fleetScreen) render() {
 		b.WriteString(line + "\n")
 	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.TrimSuffix(b.String(), "\n"))
+}
+
+// sparkFor returns the tail's sparkline of width w, drawn once per data and
+// width rather than on every keypress.
+func (s *fleetScreen) sparkFor(a model.TailAssessment, w int) string {
+	if s.sparkW != w || s.sparks == nil {
+		s.sparks, s.sparkW = map[string]string{}, w
+	}
+	if sp, ok := s.sparks[a.Tail]; ok {
+		return sp
+	}
+	devs := make([]float64, len(a.Flights))
+	for j, f := range a.Flights {
+		devs[j] = f.DevPct
+	}
+	sp := sparkline(devs, w, s.sparkLo, s.sparkHi)
+	s.sparks[a.Tail] = sp
+	return sp
 }
 
 // percentileRange returns the 2nd and 98th percentiles of v (a scale that
