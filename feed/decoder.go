@@ -343,8 +343,11 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	s.Accel = MPerS2FromKtPerMin(v[colAccel])
 	if e := CheckSnapshot(*s); e != nil {
 		col := h.name[fieldColumn[e.Field]]
-		if e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Kind == KindRange {
+		switch {
+		case e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Kind == KindRange:
 			e.Reason = fmt.Sprintf("%s (from TAT %g °C at Mach %g)", e.Reason, v[colTemp], v[colMach])
+		case e.Field == FieldAltitude && h.name[colAlt] == unitM && e.Kind == KindRange:
+			e.Reason = fmt.Sprintf("%s (from %g m)", e.Reason, v[colAlt])
 		}
 		return d.reject(n, col, e.Kind, e.Reason)
 	}

@@ -265,3 +265,20 @@ func TestEventsFileIsSkipped(t *testing.T) {
 		t.Errorf("events file: %+v", res)
 	}
 }
+
+// A range reject in other units names the file's own value beside the
+// converted one, rounded.
+func TestRejectReasonsInFileUnits(t *testing.T) {
+	tests := []struct{ name, data, want string }{
+		{"metres", "time,tail,weight_kg,alt_m,mach,sat_c,fuel_flow_kgph\n2026-03-01T10:22:00Z,DD101,65000,99999,0.78,-54.3,2380\n",
+			"x.csv:2: alt_m: pressure altitude 328081 ft outside -1000 … 65000 ft (from 99999 m)"},
+		{"total air temperature", "time,tail,weight_kg,alt_ft,mach,tat_c,fuel_flow_kgph\n2026-03-01T10:22:00Z,DD101,65000,35000,0.78,110,2380\n",
+			"x.csv:2: tat_c: static air temperature 68.44 °C outside -100 … +60 °C (from TAT 110 °C at Mach 0.78)"},
+	}
+	for _, tc := range tests {
+		_, rejects, _, err := readAll(t, "x.csv", tc.data)
+		if err != nil || len(rejects) != 1 || rejects[0].Error() != tc.want {
+			t.Errorf("%s: %v %v, want %q", tc.name, rejects, err, tc.want)
+		}
+	}
+}

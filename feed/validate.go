@@ -78,7 +78,7 @@ func CheckSnapshot(s model.Snapshot) *SnapshotError {
 	case !finite(s.Altitude):
 		return bad(FieldAltitude, notFinite)
 	case ft < MinAltitudeFt-1e-9 || ft > MaxAltitudeFt+1e-9:
-		return bad(FieldAltitude, "pressure altitude %g ft outside -1000 … 65000 ft", ft)
+		return bad(FieldAltitude, "pressure altitude %.0f ft outside -1000 … 65000 ft", ft)
 	case !finite(s.Mach):
 		return bad(FieldMach, notFinite)
 	case s.Mach <= 0 || s.Mach >= 1:

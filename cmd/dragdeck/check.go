@@ -20,13 +20,24 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
-	files, err := inputFiles(fs)
-	if err != nil {
-		return err
+	if fs.NArg() == 0 {
+		return usageErrorf("give at least one snapshot file or folder (see 'dragdeck check --help')")
+	}
+	// Each path on its own, so that a missing one does not stop the others
+	// from being checked.
+	failed := 0
+	var files []string
+	for _, p := range fs.Args() {
+		found, err := feed.ExpandPaths([]string{p})
+		if err != nil {
+			fmt.Fprintf(e.stderr, "dragdeck check: %v\n", err)
+			failed++
+			continue
+		}
+		files = append(files, found...)
 	}
 	byReason := map[string]int{}
 	var total feed.Stats
-	failed := 0
 	for _, path := range files {
 		res := feed.ReadFile(path, nil, func(r *feed.RowError) {
 			fmt.Fprintln(e.stdout, r)
@@ -43,7 +54,7 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 		}
 		total.Add(res.Stats)
 	}
-	writeCheckSummary(e.stdout, len(files), failed, total, byReason)
+	writeCheckSummary(e.stdout, len(files)+failed, failed, total, byReason)
 	switch {
 	case failed > 0:
 		return &exitErr{code: exitUsage}

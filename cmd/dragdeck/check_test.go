@@ -24,6 +24,8 @@ func TestCheck(t *testing.T) {
 		{"folder, unknown column warned once", []string{"check", "../../testdata/snapshots"}, 1,
 			[]string{"checked 3 file(s)"}, "good_lb_tat.csv: ignoring unknown column(s) remarks"},
 		{"missing file, exit 2", []string{"check", "no-such.csv"}, 2, nil, "no-such.csv"},
+		{"missing file beside a good one: both reported, exit 2", []string{"check", "no-such.csv", "../../testdata/snapshots/rejects.csv"}, 2,
+			[]string{"rejects.csv:4: row:", "1 file(s) could not be read"}, "no-such.csv"},
 		{"no path, exit 2", []string{"check"}, 2, nil, "give at least one snapshot file or folder"},
 	}
 	for _, tc := range tests {
