@@ -65,8 +65,22 @@ type header struct {
 	n       int                // fields per row
 	idx     [numColumns]int    // field index of each column, −1 if absent
 	name    [numColumns]string // the file's name of each column present
+	fields  []string           // the file's name of each field, in order
 	unknown []string           // columns that are ignored
 }
+
+// fieldName is the name of field i, or "row" when the header has no such field.
+func (h *header) fieldName(i int) string {
+	if i >= 0 && i < len(h.fields) && h.fields[i] != "" {
+		return h.fields[i]
+	}
+	return "row"
+}
+
+// acceptedColumns lists the column names a snapshot file may have, for
+// messages.
+const acceptedColumns = "time, tail, flight, weight_kg|weight_lb, alt_ft|alt_m, mach, fuel_flow_kgph|fuel_flow_lbph, " +
+	"sat_c|tat_c, bank_deg, vs_fpm, accel_kt_per_min"
 
 // eventsHeader is parseHeader's answer for the header of an events file
 // (time,tail,kind,note; DESIGN.md §3.3), which a folder may hold beside the
@@ -82,6 +96,7 @@ func parseHeader(fields [][]byte) (*header, string) {
 	seen := map[string]bool{}
 	for i, f := range fields {
 		name := strings.ToLower(string(bytes.TrimSpace(f)))
+		h.fields = append(h.fields, name)
 		if seen[name] {
 			return nil, "column " + quoteName(name) + " appears twice"
 		}
@@ -99,10 +114,14 @@ func parseHeader(fields [][]byte) (*header, string) {
 	if h.idx[colWeight] < 0 && seen["kind"] && seen["note"] && h.idx[colTime] >= 0 && h.idx[colTail] >= 0 {
 		return nil, eventsHeader
 	}
+	var missing []string
 	for _, r := range requiredColumns {
 		if h.idx[r.col] < 0 {
-			return nil, "missing required column " + r.name
+			missing = append(missing, r.name)
 		}
+	}
+	if len(missing) > 0 {
+		return nil, "missing required column(s) " + strings.Join(missing, ", ") + "; the accepted columns are " + acceptedColumns
 	}
 	return h, ""
 }

@@ -8,28 +8,23 @@ import (
 	"time"
 )
 
-// maxRecord bounds a quoted record that spans lines, and maxLine one
-// physical line, so that memory stays flat on any input.
-const (
-	maxRecord = 64 << 10
-	maxLine   = 1 << 20
-)
+// maxLine bounds one physical line, so that memory stays flat on any input.
+const maxLine = 1 << 20
 
 var utf8BOM = []byte{0xEF, 0xBB, 0xBF}
 
-// Decoder turns the physical lines of a snapshot CSV (DESIGN.md §3.1) into
-// records. It is fed one line at a time, so the file reader and the follower
-// of a growing file share it. Lines starting with '#' and blank lines are
-// skipped; the first other line is the header; quoted fields follow RFC 4180
-// and may span lines.
+// Decoder turns the physical lines of a snapshot CSV into records. It is fed
+// one line at a time, so the file reader and the follower of a growing file
+// share it. Lines starting with '#' and blank lines are skipped; the first
+// other line is the header. Fields are quoted as in RFC 4180 ("" is a quote
+// inside a quoted field), but a field may not span lines: a quoted field
+// still open at the end of its line rejects that row alone, and reading goes
+// on with the next line, so that one stray quote cannot swallow the rows
+// after it.
 type Decoder struct {
 	name  string
 	hdr   *header
 	first bool // no line seen yet (a UTF-8 BOM may lead it)
-
-	pending     []byte // a quoted record that spans lines
-	pendingLine int
-	inQuote     bool
 
 	fields  [][]byte
 	scratch []byte
@@ -58,8 +53,8 @@ func (d *Decoder) Unknown() []string {
 // Line feeds physical line n (1-based, without its line terminator). It
 // returns ok = true and the record for an accepted row; a *RowError for a
 // rejected row; a *FileError when the file cannot be read as snapshots; or
-// nothing for a comment, a blank line, the header or an unfinished quoted
-// record. The decoder does not keep line after it returns.
+// nothing for a comment, a blank line or the header. The decoder does not
+// keep line after it returns.
 func (d *Decoder) Line(line []byte, n int) (rec Record, ok bool, err error) {
 	if d.first {
 		line = bytes.TrimPrefix(line, utf8BOM)
@@ -68,100 +63,14 @@ func (d *Decoder) Line(line []byte, n int) (rec Record, ok bool, err error) {
 	if k := len(line); k > 0 && line[k-1] == '\r' {
 		line = line[:k-1]
 	}
-	if d.inQuote {
-		d.pending = append(append(d.pending, '\n'), line...)
-		if openQuote(line, true) {
-			if len(d.pending) > maxRecord {
-				d.pending, d.inQuote = d.pending[:0], false
-				return d.reject(d.pendingLine, "row", KindQuote, fmt.Sprintf("quoted field not closed within %d KiB", maxRecord>>10))
-			}
-			return Record{}, false, nil
-		}
-		d.inQuote = false
-		return d.record(d.pending, d.pendingLine)
-	}
 	if len(line) > 0 && line[0] == '#' || len(bytes.TrimSpace(line)) == 0 {
-		return Record{}, false, nil
-	}
-	if openQuote(line, false) {
-		d.pending = append(d.pending[:0], line...)
-		d.pendingLine, d.inQuote = n, true
 		return Record{}, false, nil
 	}
 	return d.record(line, n)
 }
 
-// openQuote reports whether a record is still inside a quoted field at the
-// end of line, following RFC 4180; inQuoted says the line starts inside one.
-// A quoting error ends the record (split reports it).
-func openQuote(line []byte, inQuoted bool) bool {
-	if !inQuoted && bytes.IndexByte(line, '"') < 0 {
-		return false
-	}
-	const (
-		fieldStart = iota
-		unquoted
-		quoted
-		afterQuote
-		trailing // spaces after a closing quote
-	)
-	state := fieldStart
-	if inQuoted {
-		state = quoted
-	}
-	for _, c := range line {
-		switch state {
-		case fieldStart:
-			switch c {
-			case ' ', '\t', ',':
-			case '"':
-				state = quoted
-			default:
-				state = unquoted
-			}
-		case unquoted:
-			switch c {
-			case ',':
-				state = fieldStart
-			case '"':
-				return false // bare quote: an error, the record ends here
-			}
-		case quoted:
-			if c == '"' {
-				state = afterQuote
-			}
-		case afterQuote:
-			switch c {
-			case '"':
-				state = quoted
-			case ',':
-				state = fieldStart
-			case ' ', '\t':
-				state = trailing
-			default:
-				return false // text after a closing quote: an error
-			}
-		case trailing:
-			switch c {
-			case ',':
-				state = fieldStart
-			case ' ', '\t':
-			default:
-				return false
-			}
-		}
-	}
-	return state == quoted
-}
-
-// End finishes the input: an open quoted record is rejected, and a file with
-// no header is a *FileError.
+// End finishes the input: a file with no header is a *FileError.
 func (d *Decoder) End() error {
-	if d.inQuote {
-		d.inQuote = false
-		_, _, err := d.reject(d.pendingLine, "row", KindQuote, "quoted field not closed before the end of the file")
-		return err
-	}
 	if d.hdr == nil {
 		return &FileError{File: d.name, Reason: "no header line (the file is empty or holds only comments)"}
 	}
@@ -170,29 +79,32 @@ func (d *Decoder) End() error {
 
 // TooLong rejects line n for being longer than the reader accepts.
 func (d *Decoder) TooLong(n int) error {
-	d.inQuote = false
 	if d.hdr == nil {
 		return &FileError{File: d.name, Line: n, Reason: fmt.Sprintf("header line longer than %d MiB", maxLine>>20)}
 	}
-	_, _, err := d.reject(n, "row", KindTooLong, fmt.Sprintf("line longer than %d MiB", maxLine>>20))
+	_, _, err := d.reject(n, "row", ErrTooLong, fmt.Sprintf("line longer than %d MiB", maxLine>>20))
 	return err
 }
 
-func (d *Decoder) reject(n int, col, kind, reason string) (Record, bool, error) {
+func (d *Decoder) reject(n int, col string, kind error, reason string) (Record, bool, error) {
 	d.stats.Read++
 	d.stats.Rejected++
-	return Record{}, false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Kind: kind}
+	return Record{}, false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Err: kind}
 }
 
 // record handles one complete CSV record that starts on line n.
 func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
-	if msg := d.split(rec); msg != "" {
+	if msg, bad := d.split(rec); msg != "" {
 		if d.hdr == nil {
 			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "header: " + msg}
 		}
-		return d.reject(n, "row", KindQuote, msg)
+		return d.reject(n, d.hdr.fieldName(bad), ErrQuote, msg)
 	}
 	if d.hdr == nil {
+		if len(d.fields) == 1 && bytes.Count(rec, []byte{';'}) > 0 {
+			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "the header is separated by semicolons, not commas " +
+				"(a spreadsheet export with decimal commas?): save the file as comma-separated with decimal points"}
+		}
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
 			return Record{}, false, &FileError{File: d.name, Line: n, Reason: msg, Events: msg == eventsHeader}
@@ -203,16 +115,18 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 	return d.row(n)
 }
 
-// split splits rec into d.fields by RFC 4180 rules. Unquoted fields are
-// trimmed of spaces; quoted fields keep their content with "" as one quote.
-func (d *Decoder) split(rec []byte) string {
+// split splits one line into d.fields by RFC 4180 rules, and is the one
+// place that knows them. Unquoted fields are trimmed of spaces; quoted
+// fields keep their content with "" as one quote. On a quoting error it
+// returns the reason and the index of the field at fault.
+func (d *Decoder) split(rec []byte) (string, int) {
 	d.fields = d.fields[:0]
 	if bytes.IndexByte(rec, '"') < 0 { // fast path: no quoting
 		for {
 			i := bytes.IndexByte(rec, ',')
 			if i < 0 {
 				d.fields = append(d.fields, bytes.TrimSpace(rec))
-				return ""
+				return "", 0
 			}
 			d.fields = append(d.fields, bytes.TrimSpace(rec[:i]))
 			rec = rec[i+1:]
@@ -230,7 +144,7 @@ func (d *Decoder) split(rec []byte) string {
 			for {
 				i := bytes.IndexByte(rest, '"')
 				if i < 0 {
-					return "quoted field not closed"
+					return "quoted field not closed on its line (fields may not span lines)", len(d.fields)
 				}
 				buf = append(buf, rest[:i]...)
 				rest = rest[i+1:]
@@ -244,10 +158,10 @@ func (d *Decoder) split(rec []byte) string {
 			d.fields = append(d.fields, buf[start:len(buf):len(buf)])
 			rest = bytes.TrimLeft(rest, " \t")
 			if len(rest) == 0 {
-				return ""
+				return "", 0
 			}
 			if rest[0] != ',' {
-				return "text after a closing quote"
+				return "text after a closing quote", len(d.fields) - 1
 			}
 			rec = rest[1:]
 			continue
@@ -258,11 +172,11 @@ func (d *Decoder) split(rec []byte) string {
 			f = rec[:i]
 		}
 		if bytes.IndexByte(f, '"') >= 0 {
-			return `a quote (") inside an unquoted field`
+			return `a quote (") inside an unquoted field`, len(d.fields)
 		}
 		d.fields = append(d.fields, bytes.TrimSpace(f))
 		if i < 0 {
-			return ""
+			return "", 0
 		}
 		rec = rec[i+1:]
 	}
@@ -272,23 +186,23 @@ func (d *Decoder) split(rec []byte) string {
 func (d *Decoder) row(n int) (Record, bool, error) {
 	h := d.hdr
 	if len(d.fields) != h.n {
-		return d.reject(n, "row", KindFields, fmt.Sprintf("%d fields, the header has %d", len(d.fields), h.n))
+		return d.reject(n, "row", ErrFields, fmt.Sprintf("%d fields, the header has %d", len(d.fields), h.n))
 	}
 	f := func(c column) []byte { return d.fields[h.idx[c]] }
 
 	rec := Record{File: d.name, Line: n}
 	tf := f(colTime)
 	if len(tf) == 0 {
-		return d.reject(n, h.name[colTime], KindEmpty, "empty")
+		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
 	}
 	t, err := time.Parse(time.RFC3339, string(tf))
 	if err != nil {
-		return d.reject(n, h.name[colTime], KindTime, fmt.Sprintf("%q is not an RFC 3339 time such as 2026-03-01T10:22:00Z", tf))
+		return d.reject(n, h.name[colTime], ErrTime, fmt.Sprintf("%q is not an RFC 3339 time such as 2026-03-01T10:22:00Z", tf))
 	}
-	rec.Time = t
+	rec.Time = t.UTC() // UTC inside, whatever offset the file uses
 	tail := f(colTail)
 	if len(tail) == 0 {
-		return d.reject(n, h.name[colTail], KindEmpty, "empty")
+		return d.reject(n, h.name[colTail], ErrEmpty, "empty")
 	}
 	rec.Tail = intern(d.tails, tail)
 	if h.idx[colFlight] >= 0 {
@@ -306,16 +220,16 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 		b := d.fields[h.idx[c]]
 		if len(b) == 0 {
 			if c <= colTemp {
-				return d.reject(n, h.name[c], KindEmpty, "empty")
+				return d.reject(n, h.name[c], ErrEmpty, "empty")
 			}
 			continue // optional: 0
 		}
 		x, err := strconv.ParseFloat(string(b), 64)
 		if err != nil {
-			return d.reject(n, h.name[c], KindNumber, fmt.Sprintf("%q is not a number", b))
+			return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%q is not a number", b))
 		}
 		if math.IsNaN(x) || math.IsInf(x, 0) {
-			return d.reject(n, h.name[c], KindNotFinite, "not a finite number")
+			return d.reject(n, h.name[c], ErrNotFinite, "not a finite number")
 		}
 		v[c] = x
 	}
@@ -344,12 +258,12 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	if e := CheckSnapshot(*s); e != nil {
 		col := h.name[fieldColumn[e.Field]]
 		switch {
-		case e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Kind == KindRange:
+		case e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Err == ErrRange:
 			e.Reason = fmt.Sprintf("%s (from TAT %g °C at Mach %g)", e.Reason, v[colTemp], v[colMach])
-		case e.Field == FieldAltitude && h.name[colAlt] == unitM && e.Kind == KindRange:
+		case e.Field == FieldAltitude && h.name[colAlt] == unitM && e.Err == ErrRange:
 			e.Reason = fmt.Sprintf("%s (from %g m)", e.Reason, v[colAlt])
 		}
-		return d.reject(n, col, e.Kind, e.Reason)
+		return d.reject(n, col, e.Err, e.Reason)
 	}
 	d.stats.Read++
 	d.stats.Accepted++

@@ -32,7 +32,6 @@ func ReadEvents(path string) (map[string][]model.Event, error) {
 		if err == io.EOF {
 			break
 		}
-		line, _ := r.FieldPos(0)
 		if err != nil {
 			var pe *csv.ParseError
 			if errors.As(err, &pe) {
@@ -40,6 +39,7 @@ func ReadEvents(path string) (map[string][]model.Event, error) {
 			}
 			return nil, fmt.Errorf("%s: %w", path, err)
 		}
+		line, _ := r.FieldPos(0) // only after a record was read without error
 		if idx == nil {
 			idx = map[string]int{}
 			for i, name := range rec {
@@ -66,7 +66,7 @@ func ReadEvents(path string) (map[string][]model.Event, error) {
 		if tail == "" {
 			return nil, fmt.Errorf("%s:%d: tail: empty", path, line)
 		}
-		out[tail] = append(out[tail], model.Event{Time: t, Kind: get("kind"), Note: get("note")})
+		out[tail] = append(out[tail], model.Event{Time: t.UTC(), Kind: get("kind"), Note: get("note")})
 	}
 	if idx == nil {
 		return nil, fmt.Errorf("%s: no header line (events files have time,tail,kind,note)", path)

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"dragdeck/model"
 )
@@ -87,25 +88,25 @@ func TestRejectReasons(t *testing.T) {
 	want := []struct {
 		line int
 		col  string
-		kind string
+		kind error
 	}{
-		{4, "row", KindFields},
-		{5, "time", KindTime},
-		{6, "time", KindEmpty},
-		{7, "tail", KindEmpty},
-		{8, "weight_kg", KindNumber},
-		{9, "weight_kg", KindRange},
-		{10, "alt_ft", KindRange},
-		{11, "mach", KindRange},
-		{12, "mach", KindRange},
-		{13, "sat_c", KindRange},
-		{14, "fuel_flow_kgph", KindRange},
-		{15, "fuel_flow_kgph", KindEmpty},
-		{16, "bank_deg", KindRange},
-		{17, "mach", KindNotFinite},
-		{18, "bank_deg", KindNotFinite},
-		{19, "row", KindQuote},
-		{20, "row", KindQuote},
+		{4, "row", ErrFields},
+		{5, "time", ErrTime},
+		{6, "time", ErrEmpty},
+		{7, "tail", ErrEmpty},
+		{8, "weight_kg", ErrNumber},
+		{9, "weight_kg", ErrRange},
+		{10, "alt_ft", ErrRange},
+		{11, "mach", ErrRange},
+		{12, "mach", ErrRange},
+		{13, "sat_c", ErrRange},
+		{14, "fuel_flow_kgph", ErrRange},
+		{15, "fuel_flow_kgph", ErrEmpty},
+		{16, "bank_deg", ErrRange},
+		{17, "mach", ErrNotFinite},
+		{18, "bank_deg", ErrNotFinite},
+		{19, "flight", ErrQuote},
+		{20, "flight", ErrQuote},
 	}
 	if len(rejects) != len(want) {
 		for _, r := range rejects {
@@ -115,11 +116,11 @@ func TestRejectReasons(t *testing.T) {
 	}
 	for i, w := range want {
 		r := rejects[i]
-		if r.Line != w.line || r.Column != w.col || r.Kind != w.kind || r.File != "rejects.csv" {
-			t.Errorf("reject %d = %v (%s), want line %d column %s kind %s", i, r, r.Kind, w.line, w.col, w.kind)
+		if r.Line != w.line || r.Column != w.col || !errors.Is(r, w.kind) || r.File != "rejects.csv" {
+			t.Errorf("reject %d = %v (%v), want line %d column %s kind %v", i, r, r.Err, w.line, w.col, w.kind)
 		}
 	}
-	if len(recs) != 3 || recs[1].Flight != "flight with\na line break" || recs[1].Line != 21 || recs[2].Line != 24 {
+	if len(recs) != 3 || recs[1].Flight != `flight, "quoted"` || recs[1].Line != 21 || recs[2].Line != 23 {
 		t.Errorf("accepted %+v", recs)
 	}
 	if st.Read != 20 {
@@ -136,8 +137,10 @@ func TestFileErrors(t *testing.T) {
 	}{
 		{"empty file", "", "x.csv: no header line"},
 		{"only comments", "# nothing\n\n", "x.csv: no header line"},
-		{"missing column", "time,tail,weight_kg,alt_ft,mach,sat_c\n", "x.csv:1: missing required column fuel_flow_kgph (or fuel_flow_lbph)"},
-		{"missing temperature", "time,tail,weight_kg,alt_ft,mach,fuel_flow_kgph\n", "missing required column sat_c (or tat_c)"},
+		{"missing column", "time,tail,weight_kg,alt_ft,mach,sat_c\n", "x.csv:1: missing required column(s) fuel_flow_kgph (or fuel_flow_lbph); the accepted columns are time, tail,"},
+		{"missing temperature", "time,tail,weight_kg,alt_ft,mach,fuel_flow_kgph\n", "missing required column(s) sat_c (or tat_c)"},
+		{"every missing column named", "time,tail,mach\n", "missing required column(s) weight_kg (or weight_lb), alt_ft (or alt_m), fuel_flow_kgph (or fuel_flow_lbph), sat_c (or tat_c);"},
+		{"semicolons", "time;tail;weight_kg;alt_ft;mach;sat_c;fuel_flow_kgph\n2026-03-01T10:22:00Z;DD101;65000;35000;0,78;-54,3;2380\n", "x.csv:1: the header is separated by semicolons, not commas"},
 		{"two units", "time,tail,weight_kg,weight_lb,alt_ft,mach,sat_c,fuel_flow_kgph\n", "columns weight_kg and weight_lb both given"},
 		{"duplicate", "# c\ntime,tail,weight_kg,alt_ft,mach,mach,sat_c,fuel_flow_kgph\n", "x.csv:2: column mach appears twice"},
 		{"bad header quoting", "time,\"tail\"x\n", "x.csv:1: header: text after a closing quote"},
@@ -167,9 +170,9 @@ func TestReaderEdges(t *testing.T) {
 		{"last line without newline", minHeader + strings.TrimSuffix(goodRow, "\n"), 1, 0, 0},
 		{"line over 1 MiB is rejected and reading goes on", minHeader + long + goodRow, 1, 1, 2},
 		{"open quote at the end", minHeader + goodRow + "2026-03-01T10:22:00Z,\"DD1", 1, 1, 3},
-		// After 64 KiB the open quote is given up: that row is rejected and the
-		// lines after it are read as rows again (10 stray lines, then a good one).
-		{"open quote over 64 KiB", minHeader + "x,\"" + strings.Repeat("a\n", maxRecord/2+10) + goodRow, 1, 11, 2},
+		// A quoted field may not span lines: a stray quote rejects its own row
+		// and the rows after it are read as usual.
+		{"stray quote rejects one row only", minHeader + "2026-03-01T10:22:00Z,\"DD101,65000,35000,0.78,-54.3,2380\n" + goodRow + goodRow + goodRow, 3, 1, 2},
 		{"CR only inside a field", minHeader + "2026-03-01T10:22:00Z,\"DD\r101\",65000,35000,0.78,-54.3,2380\r\n", 1, 0, 0},
 		{"spaces around fields", minHeader + " 2026-03-01T10:22:00Z , DD101 ,65000, 35000,0.78,-54.3, 2380 \n", 1, 0, 0},
 	}
@@ -280,5 +283,16 @@ func TestRejectReasonsInFileUnits(t *testing.T) {
 		if err != nil || len(rejects) != 1 || rejects[0].Error() != tc.want {
 			t.Errorf("%s: %v %v, want %q", tc.name, rejects, err, tc.want)
 		}
+	}
+}
+
+// Times are UTC inside, whatever offset the file uses.
+func TestTimesAreUTC(t *testing.T) {
+	recs, _, _, err := readAll(t, "x.csv", minHeader+"2026-03-01T05:22:00-05:00,DD101,65000,35000,0.78,-54.3,2380\n")
+	if err != nil || len(recs) != 1 {
+		t.Fatal(err, recs)
+	}
+	if got := recs[0].Time; got.Location() != time.UTC || got.Format(time.RFC3339) != "2026-03-01T10:22:00Z" {
+		t.Errorf("time %v, want 2026-03-01T10:22:00Z in UTC", got)
 	}
 }

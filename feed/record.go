@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"errors"
 	"fmt"
 	"time"
 
@@ -17,6 +18,20 @@ type Record struct {
 	Line   int    // 1-based line where the row starts
 }
 
+// The kinds of reject. A *RowError or *SnapshotError wraps one of them, so
+// that callers can count or test rejects with errors.Is, as with the
+// encoding/csv and strconv errors.
+var (
+	ErrNotFinite = errors.New("not finite")
+	ErrRange     = errors.New("out of range")
+	ErrNumber    = errors.New("not a number")
+	ErrEmpty     = errors.New("empty")
+	ErrTime      = errors.New("bad time")
+	ErrFields    = errors.New("wrong number of fields")
+	ErrQuote     = errors.New("bad quoting")
+	ErrTooLong   = errors.New("line too long")
+)
+
 // RowError is a rejected row: "file:line: column: reason". Reading goes on
 // after it.
 type RowError struct {
@@ -24,12 +39,15 @@ type RowError struct {
 	Line   int
 	Column string // the file's own column name, or "row" for the whole row
 	Reason string
-	Kind   string // a short class of reason, for counting (Kind* constants)
+	Err    error // the kind: one of the Err* values above
 }
 
 func (e *RowError) Error() string {
 	return fmt.Sprintf("%s:%d: %s: %s", e.File, e.Line, e.Column, e.Reason)
 }
+
+// Unwrap returns the kind of reject.
+func (e *RowError) Unwrap() error { return e.Err }
 
 // FileError is a file that cannot be read as snapshots at all: no header, a
 // required column missing, a column given twice. Reading stops.

@@ -3,6 +3,7 @@ package feed
 import (
 	"fmt"
 	"math"
+	"strconv"
 
 	"dragdeck/model"
 )
@@ -24,24 +25,19 @@ const (
 	FieldAccel    Field = "accel_kt_per_min"
 )
 
-// Limits of a usable snapshot (DESIGN.md §3.1).
+// Limits of a usable snapshot. Altitude and temperature are those of the
+// snapshot format; the weight, fuel-flow, Mach and acceleration bounds are
+// plausibility limits well beyond any transport aircraft (common practice),
+// there so that one absurd value cannot turn an analysis infinite.
 const (
-	MinAltitudeFt = -1000.0
-	MaxAltitudeFt = 65000.0
-	MinSATC       = -100.0
-	MaxSATC       = 60.0
-)
-
-// Kinds of reject, for counting rejected rows by reason.
-const (
-	KindNotFinite = "not finite"
-	KindRange     = "out of range"
-	KindNumber    = "not a number"
-	KindEmpty     = "empty"
-	KindTime      = "bad time"
-	KindFields    = "wrong number of fields"
-	KindQuote     = "bad quoting"
-	KindTooLong   = "line too long"
+	MinAltitudeFt    = -1000.0
+	MaxAltitudeFt    = 65000.0
+	MinSATC          = -100.0
+	MaxSATC          = 60.0
+	MaxWeightKg      = 1e6   // 1,000 t
+	MaxFuelFlowKgph  = 1e5   // all engines
+	MinMach          = 0.05  // below it the dynamic pressure is too small to analyse
+	MaxAccelKtPerMin = 100.0 // |rate of change of true airspeed|
 )
 
 const notFinite = "not a finite number"
@@ -50,22 +46,27 @@ const notFinite = "not a finite number"
 type SnapshotError struct {
 	Field  Field
 	Reason string
-	Kind   string // "not finite" or "out of range", for counting by reason
+	Err    error // ErrNotFinite or ErrRange
 }
 
 func (e *SnapshotError) Error() string { return string(e.Field) + ": " + e.Reason }
 
+// Unwrap returns the kind of error.
+func (e *SnapshotError) Unwrap() error { return e.Err }
+
 // CheckSnapshot returns the first reason why s (SI units) cannot be
-// analysed, or nil: non-finite numbers, weight ≤ 0, Mach outside (0, 1),
-// pressure altitude outside −1,000 … 65,000 ft, SAT outside −100 … +60 °C,
-// fuel flow ≤ 0, |bank| ≥ 90°.
+// analysed, or nil: non-finite numbers, weight outside (0, 1,000 t], Mach
+// outside [0.05, 1), pressure altitude outside −1,000 … 65,000 ft, SAT
+// outside −100 … +60 °C, fuel flow outside (0, 100,000 kg/h], |bank| ≥ 90°,
+// |vertical speed| ≥ true airspeed (sin γ would exceed 1), |acceleration|
+// > 100 kt/min.
 func CheckSnapshot(s model.Snapshot) *SnapshotError {
 	bad := func(f Field, format string, args ...any) *SnapshotError {
-		kind := KindRange
+		kind := ErrRange
 		if format == notFinite {
-			kind = KindNotFinite
+			kind = ErrNotFinite
 		}
-		return &SnapshotError{Field: f, Reason: fmt.Sprintf(format, args...), Kind: kind}
+		return &SnapshotError{Field: f, Reason: fmt.Sprintf(format, args...), Err: kind}
 	}
 	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 	ft := s.Altitude / model.Foot
@@ -75,14 +76,16 @@ func CheckSnapshot(s model.Snapshot) *SnapshotError {
 		return bad(FieldWeight, notFinite)
 	case s.Weight <= 0:
 		return bad(FieldWeight, "must be > 0")
+	case s.Weight > MaxWeightKg:
+		return bad(FieldWeight, "%s kg is above the plausible %g kg", short(s.Weight), MaxWeightKg)
 	case !finite(s.Altitude):
 		return bad(FieldAltitude, notFinite)
 	case ft < MinAltitudeFt-1e-9 || ft > MaxAltitudeFt+1e-9:
 		return bad(FieldAltitude, "pressure altitude %.0f ft outside -1000 … 65000 ft", ft)
 	case !finite(s.Mach):
 		return bad(FieldMach, notFinite)
-	case s.Mach <= 0 || s.Mach >= 1:
-		return bad(FieldMach, "must be in (0, 1), got %g", s.Mach)
+	case s.Mach < MinMach || s.Mach >= 1:
+		return bad(FieldMach, "must be in [%g, 1), got %s", MinMach, short(s.Mach))
 	case !finite(s.SAT):
 		return bad(FieldSAT, notFinite)
 	case satC < MinSATC-1e-9 || satC > MaxSATC+1e-9:
@@ -91,14 +94,25 @@ func CheckSnapshot(s model.Snapshot) *SnapshotError {
 		return bad(FieldFuelFlow, notFinite)
 	case s.FuelFlow <= 0:
 		return bad(FieldFuelFlow, "must be > 0")
+	case s.FuelFlow*model.Hour > MaxFuelFlowKgph:
+		return bad(FieldFuelFlow, "%s kg/h is above the plausible %g kg/h", short(s.FuelFlow*model.Hour), MaxFuelFlowKgph)
 	case !finite(s.Bank):
 		return bad(FieldBank, notFinite)
 	case math.Abs(s.Bank) >= math.Pi/2:
 		return bad(FieldBank, "|bank| must be < 90°, got %g°", s.Bank*180/math.Pi)
 	case !finite(s.VS):
 		return bad(FieldVS, notFinite)
+	case math.Abs(s.VS) >= model.AirAt(s.Altitude, s.SAT).TAS(s.Mach):
+		tas := model.AirAt(s.Altitude, s.SAT).TAS(s.Mach)
+		return bad(FieldVS, "|vertical speed| %s ft/min is not below the true airspeed (%.0f ft/min)", short(math.Abs(s.VS)/model.Foot*model.Minute), tas/model.Foot*model.Minute)
 	case !finite(s.Accel):
 		return bad(FieldAccel, notFinite)
+	case math.Abs(s.Accel) > MaxAccelKtPerMin*model.Knot/model.Minute:
+		return bad(FieldAccel, "|acceleration| %s kt/min is above the plausible %g kt/min", short(math.Abs(s.Accel)/model.Knot*model.Minute), MaxAccelKtPerMin)
 	}
 	return nil
 }
+
+// short formats v with at most 6 significant digits, so that a message never
+// prints a 300-digit number.
+func short(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }

@@ -35,6 +35,15 @@ func TestCheckSnapshot(t *testing.T) {
 		{"bank -95", func(s *model.Snapshot) { s.Bank = RadFromDeg(-95) }, FieldBank},
 		{"vs NaN", func(s *model.Snapshot) { s.VS = math.NaN() }, FieldVS},
 		{"accel Inf", func(s *model.Snapshot) { s.Accel = math.Inf(-1) }, FieldAccel},
+		// sin γ = VS/TAS must stay below 1: at M0.78, FL350 and ISA−0 TAS is
+		// about 449 kt = 45,500 ft/min.
+		{"vs above TAS", func(s *model.Snapshot) { s.VS = MPerSFromFtPerMin(50000) }, FieldVS},
+		{"vs below TAS", func(s *model.Snapshot) { s.VS = MPerSFromFtPerMin(-40000) }, ""},
+		{"weight 1e308", func(s *model.Snapshot) { s.Weight = 1e308 }, FieldWeight},
+		{"fuel flow 1e308", func(s *model.Snapshot) { s.FuelFlow = 1e308 }, FieldFuelFlow},
+		{"Mach 1e-300", func(s *model.Snapshot) { s.Mach = 1e-300 }, FieldMach},
+		{"accel 1e308", func(s *model.Snapshot) { s.Accel = -1e308 }, FieldAccel},
+		{"vs 1e308", func(s *model.Snapshot) { s.VS = 1e308 }, FieldVS},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -48,5 +57,15 @@ func TestCheckSnapshot(t *testing.T) {
 				t.Errorf("got %v, want a %s error", err, tc.want)
 			}
 		})
+	}
+}
+
+// A message never prints a 300-digit number.
+func TestCheckSnapshotShortNumbers(t *testing.T) {
+	s := goodSnapshot()
+	s.Weight = 1e308
+	err := CheckSnapshot(s)
+	if err == nil || len(err.Error()) > 80 {
+		t.Fatalf("error %q", err)
 	}
 }

@@ -11,8 +11,8 @@ import (
 
 func runCheck(e *env, args []string) error {
 	fs := newFlagSet("check", "dragdeck check PATH...",
-		`Validates snapshot files (or every *.csv in a folder) against DESIGN.md §3.1
-and lists every rejected row as file:line: column: reason, then the counts per
+		`Validates snapshot files (or every *.csv in a folder) against the snapshot
+format (see the README) and lists every rejected row as file:line: column: reason, then the counts per
 reason. Every row is either accepted or rejected: read = accepted + rejected.
 Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 (missing, no header, a required column missing).`,
@@ -41,7 +41,7 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 	for _, path := range files {
 		res := feed.ReadFile(path, nil, func(r *feed.RowError) {
 			fmt.Fprintln(e.stdout, r)
-			byReason[r.Column+": "+r.Kind]++
+			byReason[r.Column+": "+r.Err.Error()]++
 		})
 		warnUnknown(e.stderr, res)
 		if res.Events {
@@ -54,7 +54,7 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 		}
 		total.Add(res.Stats)
 	}
-	writeCheckSummary(e.stdout, len(files)+failed, failed, total, byReason)
+	writeCheckSummary(e.stdout, len(fs.Args()), len(files), failed, total, byReason)
 	switch {
 	case failed > 0:
 		return &exitErr{code: exitUsage}
@@ -64,10 +64,13 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 	return nil
 }
 
-func writeCheckSummary(w io.Writer, files, failed int, st feed.Stats, byReason map[string]int) {
-	fmt.Fprintf(w, "\nchecked %d file(s): %d rows read, %d accepted, %d rejected", files, st.Read, st.Accepted, st.Rejected)
+// writeCheckSummary prints the counts: files is the number of files found
+// (a path that does not exist is no file), failed those that could not be
+// read, including missing paths.
+func writeCheckSummary(w io.Writer, paths, files, failed int, st feed.Stats, byReason map[string]int) {
+	fmt.Fprintf(w, "\nchecked %d file(s) from %d path(s): %d rows read, %d accepted, %d rejected", files, paths, st.Read, st.Accepted, st.Rejected)
 	if failed > 0 {
-		fmt.Fprintf(w, "; %d file(s) could not be read", failed)
+		fmt.Fprintf(w, "; %d could not be read", failed)
 	}
 	fmt.Fprintln(w)
 	if len(byReason) == 0 {

@@ -25,7 +25,10 @@ func TestCheck(t *testing.T) {
 			[]string{"checked 3 file(s)"}, "good_lb_tat.csv: ignoring unknown column(s) remarks"},
 		{"missing file, exit 2", []string{"check", "no-such.csv"}, 2, nil, "no-such.csv"},
 		{"missing file beside a good one: both reported, exit 2", []string{"check", "no-such.csv", "../../testdata/snapshots/rejects.csv"}, 2,
-			[]string{"rejects.csv:4: row:", "1 file(s) could not be read"}, "no-such.csv"},
+			[]string{"rejects.csv:4: row:", "checked 1 file(s) from 2 path(s)", "1 could not be read"}, "no-such.csv"},
+		// One broken file is one file, not two.
+		{"one broken file counts once", []string{"check", "../../testdata/bad/semicolons.csv"}, 2,
+			[]string{"checked 1 file(s) from 1 path(s)", "1 could not be read"}, "separated by semicolons"},
 		{"no path, exit 2", []string{"check"}, 2, nil, "give at least one snapshot file or folder"},
 	}
 	for _, tc := range tests {
@@ -53,7 +56,8 @@ func TestCheckMissingColumn(t *testing.T) {
 	bad := filepath.Join(dir, "a.csv")
 	os.WriteFile(bad, []byte("time,tail,weight_kg,alt_ft,mach,sat_c\n"), 0o644)
 	code, out, errs := runArgs("check", bad, "../../testdata/snapshots/good_kg_sat.csv")
-	if code != 2 || !strings.Contains(errs, "a.csv:1: missing required column fuel_flow_kgph") || !strings.Contains(out, "5 accepted") {
+	if code != 2 || !strings.Contains(errs, "a.csv:1: missing required column(s) fuel_flow_kgph") || !strings.Contains(out, "5 accepted") ||
+		!strings.Contains(out, "checked 2 file(s) from 2 path(s)") {
 		t.Errorf("exit %d, stdout %q, stderr %q", code, out, errs)
 	}
 }

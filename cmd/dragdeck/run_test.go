@@ -39,7 +39,7 @@ func TestRunExitCodes(t *testing.T) {
 		{"unknown command", []string{"fly"}, 2, "", `unknown command "fly"`},
 		{"missing flag", []string{"point", "--weight-kg", "65000"}, 2, "", "--alt-ft: missing"},
 		{"weight zero", []string{"speed", "--weight-kg", "0", "--alt-ft", "35000"}, 2, "", "--weight-kg: must be > 0"},
-		{"Mach above 1", []string{"bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "1.1"}, 2, "", "--mach: must be in (0, 1)"},
+		{"Mach above 1", []string{"bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "1.1"}, 2, "", "--mach: must be in [0.05, 1)"},
 		{"bank 90", append(append([]string{}, pointArgs[:11]...), "--bank-deg", "90"), 2, "", "--bank-deg: |bank| must be < 90°"},
 		{"not a number", []string{"point", "--mach", "fast"}, 2, "", `--mach: "fast" is not a number`},
 		{"unknown flag", []string{"bank", "--wing", "3"}, 2, "", "not defined: --wing"},
