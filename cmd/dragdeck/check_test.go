@@ -18,7 +18,7 @@ func TestCheck(t *testing.T) {
 		stderr string
 	}{
 		{"every reject listed, exit 1", []string{"check", "../../testdata/snapshots/rejects.csv"}, 1,
-			[]string{"rejects.csv:4: row: 8 fields, the header has 9", "rejects.csv:20: row:", "20 rows read, 3 accepted, 17 rejected", "mach: out of range"}, ""},
+			[]string{"rejects.csv:4: row: 8 fields, the header has 9", "rejects.csv:20: flight:", "20 rows read, 3 accepted, 17 rejected", "mach: out of range"}, ""},
 		{"clean file, exit 0", []string{"check", "../../testdata/snapshots/good_kg_sat.csv"}, 0,
 			[]string{"5 rows read, 5 accepted, 0 rejected"}, ""},
 		{"folder, unknown column warned once", []string{"check", "../../testdata/snapshots"}, 1,
