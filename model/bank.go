@@ -12,6 +12,7 @@ type BankRow struct {
 	ExtraFuelFlow      float64 // TSFC · ΔD, kg/s
 	CL                 float64 // lift coefficient in the turn
 	Drag               float64 // N, in the turn
+	Buffet             bool    // CL · 1.3 > cl_buffet: the 1.3 g buffet margin is not kept
 }
 
 // BankPenalty is the drag and fuel cost of a level turn at bank φ (rad)
@@ -36,6 +37,7 @@ func BankPenalty(t *Type, w float64, air Air, mach, excess, bank float64) BankRo
 		ExtraFuelFlow:      tsfc * (cd - cd0) * qs,
 		CL:                 cl,
 		Drag:               cd * qs,
+		Buffet:             BuffetMargin*cl > t.CLBuffet,
 	}
 }
 
@@ -46,4 +48,13 @@ func BankTable(t *Type, w float64, air Air, mach, excess float64) []BankRow {
 		rows = append(rows, BankPenalty(t, w, air, mach, excess, float64(deg)*math.Pi/180))
 	}
 	return rows
+}
+
+// MinBuffetMach is the lowest Mach at which 1 g level flight of weight w (kg)
+// in air keeps the 1.3 g buffet margin, CL · 1.3 ≤ cl_buffet (trade
+// convention): q = ½ γ p M² ≥ 1.3 W g0 / (S cl_buffet), so
+// M = √(2 · 1.3 W g0 / (γ p S cl_buffet)). Below it a turn table means
+// nothing.
+func MinBuffetMach(t *Type, w float64, air Air) float64 {
+	return math.Sqrt(2 * BuffetMargin * w * G0 / (Gamma * air.P * t.WingArea * t.CLBuffet))
 }

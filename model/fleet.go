@@ -17,9 +17,9 @@ type TailAssessment struct {
 	TailTrend
 	Flags        []string
 	Improvements []Step  // significant decreases of at least StepPP
-	ExcessFuel   float64 // kg per year: recent level × expected fuel flow × cruise hours
-	CO2          float64 // kg per year, 3.16 × ExcessFuel (ICAO)
-	Money        float64 // ExcessFuel × fuel price; 0 without a price
+	ExcessFuel   float64 // kg per year: recent level × expected fuel flow × cruise hours; NaN without a recent level
+	CO2          float64 // kg per year, 3.16 × ExcessFuel (ICAO); NaN likewise
+	Money        float64 // ExcessFuel × fuel price; 0 without a price, NaN likewise
 }
 
 // Fleet is the assessment of all tails, most severe first.
@@ -48,7 +48,7 @@ func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 	}
 	f := Fleet{MedianRecentPct: median(levels)}
 	for _, t := range trends {
-		a := TailAssessment{TailTrend: t, Flags: []string{}}
+		a := TailAssessment{TailTrend: t, Flags: []string{}, ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN()}
 		if !math.IsNaN(t.RecentPct) && !math.IsNaN(f.MedianRecentPct) && t.RecentPct >= f.MedianRecentPct+c.LevelPP {
 			a.Flags = append(a.Flags, FlagLevel)
 		}
@@ -96,8 +96,8 @@ func severer(a, b *TailAssessment) bool {
 	if len(a.Flags) != len(b.Flags) {
 		return len(a.Flags) > len(b.Flags)
 	}
-	if a.ExcessFuel != b.ExcessFuel {
-		return a.ExcessFuel > b.ExcessFuel
+	if ae, be := nanLow(a.ExcessFuel), nanLow(b.ExcessFuel); ae != be {
+		return ae > be
 	}
 	ar, br := nanLow(a.RecentPct), nanLow(b.RecentPct)
 	if ar != br {

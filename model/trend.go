@@ -1,6 +1,7 @@
 package model
 
 import (
+	"errors"
 	"math"
 	"sort"
 	"time"
@@ -15,6 +16,44 @@ type TrendPoint struct {
 	Bank             float64 // rad
 	VS               float64 // m/s
 	Accel            float64 // m/s²
+
+	// For the tail's own polar and its typical cruise (single precision is
+	// ample for both).
+	CL         float32 // lift coefficient
+	CDLessWave float32 // CD_measured − ΔCD_wave
+	Weight     float32 // kg
+	Altitude   float32 // m, pressure altitude
+	Mach       float32
+	ISADev     float32 // K
+}
+
+// NewTrendPoint makes the trend's point of an analysed snapshot s taken at
+// time t in flight f.
+func NewTrendPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
+	return TrendPoint{Time: t, Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
+		Bank: s.Bank, VS: s.VS, Accel: s.Accel,
+		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
+		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
+}
+
+// PolarPoints returns the polar-fit points of the usable points among pts
+// taken at or after from (zero: all).
+func PolarPoints(pts []TrendPoint, c TrendConfig, from time.Time) []PolarPoint {
+	var out []PolarPoint
+	for _, p := range pts {
+		if c.Usable(p) == "" && !p.Time.Before(from) {
+			out = append(out, PolarPoint{CL: float64(p.CL), CDMeasured: float64(p.CDLessWave)})
+		}
+	}
+	return out
+}
+
+// Cruise is a tail's typical cruise: the medians of its usable snapshots.
+type Cruise struct {
+	Weight   float64 // kg
+	Altitude float64 // m, pressure altitude
+	Mach     float64
+	ISADev   float64 // K
 }
 
 // Event is a maintenance or other event of a tail (DESIGN.md §3.3).
@@ -37,12 +76,19 @@ type TrendConfig struct {
 	MaxVS        float64 // m/s (1,500 ft/min)
 	MaxAccel     float64 // m/s² (5 kt/min)
 
-	MinSegment     int     // fewest flights between two steps (20)
-	PenaltyFactor  float64 // split penalty = factor · σ² · ln n (8)
-	StepZ          float64 // a step is significant when |size| / SE ≥ this (4)
-	MinStepPct     float64 // smallest step reported (0.5 pp)
-	EventMatchDays float64 // an event this close to a step is shown beside it (7)
-	StepWindowDays float64 // a step is tested on this many days each side (60)
+	// The change-point search. The penalty σ² ln n per parameter is the
+	// Schwarz information criterion (Schwarz, Ann. Statist. 6, 1978; Yao,
+	// Statist. Probab. Lett. 6, 1988, for change points); the factor 8, the
+	// minimum segment, StepZ, MinStepPct and the 60-day windows were tuned
+	// on the demo fleet (no drift read as a step, every planted step of
+	// 1 pp found), not taken from a source.
+	MinSegment     int     // fewest flights between two steps (20; tuned on the demo fleet)
+	PenaltyFactor  float64 // split penalty = factor · σ² · ln n (8; tuned on the demo fleet)
+	StepZ          float64 // a step is significant when |size| / SE ≥ this (4; tuned on the demo fleet)
+	MinStepPct     float64 // smallest step reported (0.5 pp; tuned on the demo fleet)
+	EventMatchDays float64 // an event this close to a step is shown beside it (7; common practice: a week)
+	StepWindowDays float64 // a step is tested on this many days each side (60; tuned on the demo fleet)
+	RollingHalf    int     // the rolling median spans 2·RollingHalf+1 flights (10)
 
 	LevelPP  float64 // flag level: recent ≥ fleet median + this (2.0 pp)
 	GrowthPP float64 // flag growth: drift × DriftDays ≥ this (1.0 pp)
@@ -57,7 +103,7 @@ func DefaultTrendConfig() TrendConfig {
 	return TrendConfig{
 		RecentDays: 30, DriftDays: 180, MinDriftDays: 60, FlightGap: 6,
 		MaxAbsDevPct: 25, MaxBank: 30 * math.Pi / 180, MaxVS: 1500 * Foot / Minute, MaxAccel: 5 * Knot / Minute,
-		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7, StepWindowDays: 60,
+		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7, StepWindowDays: 60, RollingHalf: 10,
 		LevelPP: 2, GrowthPP: 1, StepPP: 1,
 		CruiseHours: 2500,
 	}
@@ -90,10 +136,11 @@ func (c *TrendConfig) Usable(p TrendPoint) string {
 
 // FlightPoint is the median deviation of one flight.
 type FlightPoint struct {
-	Time   time.Time // first snapshot of the flight
-	Flight string
-	DevPct float64
-	N      int // snapshots
+	Time       time.Time // first snapshot of the flight
+	Flight     string
+	DevPct     float64
+	RollingPct float64 // rolling median of DevPct over 2·RollingHalf+1 flights
+	N          int     // snapshots
 }
 
 // Step is a sudden change of a tail's deviation.
@@ -121,6 +168,22 @@ type TailTrend struct {
 	Segments           []Line  // the fitted line of each run between boundaries (x in days since First)
 	FuelFlowExpected   float64 // median expected fuel flow, kg/s
 	Events             []Event
+
+	Typical   Cruise    // medians of the usable snapshots
+	Polar     PolarFit  // CD − wave = CD0 + k CL² over the current segment
+	PolarErr  error     // why there is no polar fit (nil: Polar holds it)
+	PolarFrom time.Time // start of the current segment: the last step or event, or First
+
+	// ImplausibleMedianPct is the median deviation of the snapshots left out
+	// as implausible (NaN if none): when every snapshot is, it says by how
+	// much and so hints at the cause (a fuel flow of one engine, a unit).
+	ImplausibleMedianPct float64
+}
+
+// DriftAt is the drift line at time t, in %: Sen's line through the daily
+// medians of the drift window. NaN without a drift.
+func (tr *TailTrend) DriftAt(t time.Time) float64 {
+	return tr.Drift.Intercept + tr.Drift.Slope/100*days(t, tr.First)
 }
 
 // days is t in days since base.
@@ -160,15 +223,22 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 // medians over the trailing DriftDays after the last step.
 func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) TailTrend {
 	tr := TailTrend{Tail: tail, Excluded: map[string]int{}, RecentPct: math.NaN(),
-		Drift: Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN()}, FuelFlowExpected: math.NaN()}
+		Drift:            Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN()},
+		FuelFlowExpected: math.NaN(), ImplausibleMedianPct: math.NaN(),
+		Typical: Cruise{math.NaN(), math.NaN(), math.NaN(), math.NaN()}, PolarErr: errNoPoints}
 	usable := make([]TrendPoint, 0, len(pts))
+	var implausible []float64
 	for _, p := range pts {
 		if why := c.Usable(p); why != "" {
 			tr.Excluded[why]++
+			if why == ExcludeImplausible && !math.IsNaN(p.DevPct) {
+				implausible = append(implausible, p.DevPct)
+			}
 			continue
 		}
 		usable = append(usable, p)
 	}
+	tr.ImplausibleMedianPct = median(implausible)
 	sort.SliceStable(usable, func(i, j int) bool { return usable[i].Time.Before(usable[j].Time) })
 	tr.Points = len(usable)
 	tr.Events = append([]Event(nil), events...)
@@ -182,7 +252,15 @@ func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) 
 		ff[i] = p.FuelFlowExpected
 	}
 	tr.FuelFlowExpected = median(ff)
+	tr.Typical = typicalCruise(usable)
 	tr.Flights = Flights(usable, c.FlightGap)
+	devs := make([]float64, len(tr.Flights))
+	for i, f := range tr.Flights {
+		devs[i] = f.DevPct
+	}
+	for i, r := range RollingMedian(devs, c.RollingHalf) {
+		tr.Flights[i].RollingPct = r
+	}
 
 	recentFrom := tr.Last.Add(-time.Duration(c.RecentDays * 24 * float64(time.Hour)))
 	var recent []float64
@@ -195,7 +273,42 @@ func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) 
 
 	tr.findSteps(c)
 	tr.findDrift(c)
+	tr.fitPolar(usable, c)
 	return tr
+}
+
+var errNoPoints = errors.New("no usable snapshots")
+
+// typicalCruise is the median weight, level, Mach and ISA deviation of pts.
+func typicalCruise(pts []TrendPoint) Cruise {
+	col := func(f func(TrendPoint) float32) float64 {
+		v := make([]float64, len(pts))
+		for i, p := range pts {
+			v[i] = float64(f(p))
+		}
+		return median(v)
+	}
+	return Cruise{
+		Weight:   col(func(p TrendPoint) float32 { return p.Weight }),
+		Altitude: col(func(p TrendPoint) float32 { return p.Altitude }),
+		Mach:     col(func(p TrendPoint) float32 { return p.Mach }),
+		ISADev:   col(func(p TrendPoint) float32 { return p.ISADev }),
+	}
+}
+
+// fitPolar fits the tail's own polar over its current segment: from the
+// last step or event on, since a repair or a step changes CD0.
+func (tr *TailTrend) fitPolar(usable []TrendPoint, c TrendConfig) {
+	tr.PolarFrom = tr.First
+	if k := len(tr.Steps); k > 0 && tr.Steps[k-1].Time.After(tr.PolarFrom) {
+		tr.PolarFrom = tr.Steps[k-1].Time
+	}
+	for _, e := range tr.Events {
+		if e.Time.After(tr.PolarFrom) && !e.Time.After(tr.Last) {
+			tr.PolarFrom = e.Time
+		}
+	}
+	tr.Polar, tr.PolarErr = FitPolar(PolarPoints(usable, c, tr.PolarFrom))
 }
 
 // findSteps segments the per-flight series and keeps significant jumps.
@@ -273,31 +386,33 @@ func (tr *TailTrend) findDrift(c TrendConfig) {
 	if days(tr.Last, from) < c.MinDriftDays {
 		return
 	}
-	var x, y, day []float64
+	// Each day is one point at the median time of its flights, so that
+	// the line's intercept is at the right time of day.
+	var x, y, day, dayX []float64
 	cur := math.Inf(-1)
 	flushDay := func() {
 		if len(day) > 0 {
-			x = append(x, cur)
+			x = append(x, median(dayX))
 			y = append(y, median(day))
-			day = day[:0]
+			day, dayX = day[:0], dayX[:0]
 		}
 	}
 	for _, f := range tr.Flights {
 		if f.Time.Before(from) {
 			continue
 		}
-		d := math.Floor(days(f.Time, tr.First))
-		if d != cur {
+		fx := days(f.Time, tr.First)
+		if d := math.Floor(fx); d != cur {
 			flushDay()
 			cur = d
 		}
-		day = append(day, f.DevPct)
+		day, dayX = append(day, f.DevPct), append(dayX, fx)
 	}
 	flushDay()
 	if len(x) < 10 {
 		return
 	}
 	s := TheilSen(x, y, 0.95)
-	tr.Drift = Slope{Slope: 100 * s.Slope, Lo: 100 * s.Lo, Hi: 100 * s.Hi, N: s.N}
+	tr.Drift = Slope{Slope: 100 * s.Slope, Lo: 100 * s.Lo, Hi: 100 * s.Hi, Intercept: s.Intercept, N: s.N}
 	tr.DriftFrom, tr.DriftTo = from, tr.Last
 }

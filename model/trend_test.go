@@ -35,8 +35,8 @@ func TestTheilSen(t *testing.T) {
 		y[i] = 3 - 0.5*x[i]
 	}
 	s := TheilSen(x, y, 0.95)
-	if s.Slope != -0.5 || s.Lo != -0.5 || s.Hi != -0.5 {
-		t.Errorf("exact line: %+v", s)
+	if s.Slope != -0.5 || s.Lo != -0.5 || s.Hi != -0.5 || s.Intercept != 3 {
+		t.Errorf("exact line: %+v, want slope -0.5 and Sen's intercept 3", s)
 	}
 	y[9] = 1000
 	if s := TheilSen(x, y, 0.95); math.Abs(s.Slope+0.5) > 1e-12 {
@@ -198,6 +198,29 @@ func TestAnalyzeTrendEvent(t *testing.T) {
 	}
 	if !tr.DriftFrom.Equal(tr.Steps[0].Time) {
 		t.Errorf("drift window from %v, want the step at %v", tr.DriftFrom, tr.Steps[0].Time)
+	}
+	// The tail's own polar is fitted over the current segment: from the
+	// repair on, not over the whole history.
+	if tr.PolarFrom.Before(ev[0].Time) || tr.PolarFrom.After(tr.Steps[0].Time) {
+		t.Errorf("polar fitted from %v, want from the repair at %v (or its step at %v)", tr.PolarFrom, ev[0].Time, tr.Steps[0].Time)
+	}
+}
+
+// The drift line is Sen's line through the daily medians: on a noiseless
+// drift of 1 pp per 100 days it reproduces the series itself.
+func TestDriftLine(t *testing.T) {
+	pts := series(200, 0, 1, func(d float64) float64 { return 0.5 + 0.01*d })
+	tr := AnalyzeTrend("T1", pts, nil, DefaultTrendConfig())
+	if math.Abs(tr.Drift.Slope-1) > 1e-9 {
+		t.Fatalf("drift %+v, want 1 pp/100 d", tr.Drift)
+	}
+	for _, f := range []FlightPoint{tr.Flights[len(tr.Flights)/2], tr.Flights[len(tr.Flights)-1]} {
+		if got := tr.DriftAt(f.Time); math.Abs(got-f.DevPct) > 1e-6 {
+			t.Errorf("drift line at %v = %g, want the flight's %g", f.Time, got, f.DevPct)
+		}
+	}
+	if r := tr.Flights[50].RollingPct; math.Abs(r-tr.Flights[50].DevPct) > 0.01 {
+		t.Errorf("rolling median of a straight line = %g, want about %g", r, tr.Flights[50].DevPct)
 	}
 }
 
