@@ -2,8 +2,10 @@ package model
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"sort"
+	"strings"
 	"time"
 )
 
@@ -415,4 +417,35 @@ func (tr *TailTrend) findDrift(c TrendConfig) {
 	s := TheilSen(x, y, 0.95)
 	tr.Drift = Slope{Slope: 100 * s.Slope, Lo: 100 * s.Lo, Hi: 100 * s.Hi, Intercept: s.Intercept, N: s.N}
 	tr.DriftFrom, tr.DriftTo = from, tr.Last
+}
+
+// Why says, for a tail without a recent level, why it has none: every
+// snapshot left out, by reason, and for implausible deviations their median,
+// which points at the usual causes. "" when the tail has a recent level.
+func (tr *TailTrend) Why() string {
+	if !math.IsNaN(tr.RecentPct) {
+		return ""
+	}
+	total := 0
+	for _, n := range tr.Excluded {
+		total += n
+	}
+	if total == 0 {
+		return "no snapshots"
+	}
+	reasons := make([]string, 0, len(tr.Excluded))
+	for why, n := range tr.Excluded {
+		reasons = append(reasons, fmt.Sprintf("%d %s", n, why))
+	}
+	sort.Strings(reasons)
+	msg := fmt.Sprintf("all %d snapshots left out (%s)", total, strings.Join(reasons, ", "))
+	if m := tr.ImplausibleMedianPct; !math.IsNaN(m) {
+		msg += fmt.Sprintf("; their median deviation is %+.0f %%", m)
+		if m < -30 {
+			msg += ": is the fuel flow that of all engines, and in the unit of its column?"
+		} else if m > 30 {
+			msg += ": check the weight, the fuel-flow unit and the type file"
+		}
+	}
+	return msg
 }

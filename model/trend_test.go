@@ -3,6 +3,7 @@ package model
 import (
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 	"time"
 )
@@ -319,5 +320,24 @@ func TestRollingMedian(t *testing.T) {
 	}
 	if m := Median([]float64{3, 1, 2, 4}); m != 2.5 {
 		t.Errorf("Median of 1…4 = %g, want 2.5", m)
+	}
+}
+
+// A tail whose every snapshot is implausible (one engine's fuel flow gives
+// about −55 %) has no level, and says why.
+func TestTrendWhy(t *testing.T) {
+	pts := series(40, 0.3, 2, func(float64) float64 { return -55 })
+	tr := AnalyzeTrend("T1", pts, nil, DefaultTrendConfig())
+	why := tr.Why()
+	if !math.IsNaN(tr.RecentPct) || !strings.Contains(why, "all 80 snapshots left out") || !strings.Contains(why, "-55 %") ||
+		!strings.Contains(why, "all engines") {
+		t.Errorf("recent %g, why %q", tr.RecentPct, why)
+	}
+	f := AssessFleet([]TailTrend{tr}, DefaultTrendConfig())
+	if !math.IsNaN(f.Tails[0].ExcessFuel) {
+		t.Errorf("excess fuel %g without a level, want NaN (null in JSON)", f.Tails[0].ExcessFuel)
+	}
+	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), nil, DefaultTrendConfig()); ok.Why() != "" {
+		t.Errorf("a tail with a level says %q", ok.Why())
 	}
 }
