@@ -129,7 +129,19 @@ type FileResult struct {
 // ReadFile reads the snapshot file at path, calling accept for each accepted
 // record and reject for each rejected row (either may be nil).
 func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResult {
-	return readFileCounting(path, nil, accept, reject)
+	return ReadFileProgress(path, nil, accept, reject)
+}
+
+// TotalSize returns the summed size of the files in bytes (0 for those that
+// cannot be read), the whole of a progress bar.
+func TotalSize(paths []string) int64 {
+	var n int64
+	for _, p := range paths {
+		if fi, err := os.Stat(p); err == nil {
+			n += fi.Size()
+		}
+	}
+	return n
 }
 
 // countingReader adds the bytes it reads to n.
@@ -144,9 +156,9 @@ func (c countingReader) Read(p []byte) (int, error) {
 	return k, err
 }
 
-// readFileCounting is ReadFile that also adds the bytes read to progress
+// ReadFileProgress is ReadFile that also adds the bytes read to progress
 // (when not nil).
-func readFileCounting(path string, progress *atomic.Int64, accept func(Record), reject func(*RowError)) FileResult {
+func ReadFileProgress(path string, progress *atomic.Int64, accept func(Record), reject func(*RowError)) FileResult {
 	res := FileResult{Path: path}
 	f, err := os.Open(path)
 	if err != nil {

@@ -57,21 +57,29 @@ func (p *Player) Pos() int { return p.pos }
 // Seek moves to record i (clamped to 0 … Len).
 func (p *Player) Seek(i int) { p.pos = max(0, min(i, len(p.recs))) }
 
+// Wait is the wait before the next record: the gap between it and the
+// previous one divided by Speed, capped at MaxWait; 0 for the first
+// record, at the end or at Speed 0.
+func (p *Player) Wait() time.Duration {
+	if p.pos <= 0 || p.pos >= len(p.recs) || p.Speed <= 0 {
+		return 0
+	}
+	gap := p.recs[p.pos].Time.Sub(p.recs[p.pos-1].Time)
+	wait := time.Duration(float64(gap) / p.Speed)
+	if p.MaxWait > 0 && wait > p.MaxWait {
+		wait = p.MaxWait
+	}
+	return max(wait, 0)
+}
+
 // Next returns the next record and the wait before it; ok is false at the
 // end.
 func (p *Player) Next() (rec Record, wait time.Duration, ok bool) {
 	if p.pos >= len(p.recs) {
 		return Record{}, 0, false
 	}
+	wait = p.Wait()
 	rec = p.recs[p.pos]
-	if p.pos > 0 && p.Speed > 0 {
-		gap := rec.Time.Sub(p.recs[p.pos-1].Time)
-		wait = time.Duration(float64(gap) / p.Speed)
-		if p.MaxWait > 0 && wait > p.MaxWait {
-			wait = p.MaxWait
-		}
-		wait = max(wait, 0)
-	}
 	p.pos++
 	return rec, wait, true
 }

@@ -4,6 +4,7 @@ import (
 	"strings"
 
 	"github.com/charmbracelet/bubbles/key"
+	"github.com/charmbracelet/bubbles/viewport"
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 )
@@ -13,28 +14,50 @@ const Caution = "dragdeck is an engineering monitoring aid. It is not approved p
 	"dispatch or flight-deck use, and does not replace the type's certified performance data. Its " +
 	"results defer to the operator's approved procedures and local regulations."
 
-// aboutScreen says what the tool is, its units and its cautions.
+type aboutKeys struct{ Up, Down, PgUp, PgDn key.Binding }
+
+var aboutKeyMap = aboutKeys{Up: keyUp, Down: keyDown, PgUp: keyPgUp, PgDn: keyPgDn}
+
+// aboutScreen says what the tool is, its caution first, its units and its
+// screens, in a viewport that scrolls when the terminal is short.
 type aboutScreen struct {
-	st   Styles
-	w, h int
-	view string
+	st Styles
+	vp viewport.Model
 }
 
-func newAboutScreen(st Styles) *aboutScreen { return &aboutScreen{st: st} }
+func newAboutScreen(st Styles) *aboutScreen {
+	vp := viewport.New(0, 0)
+	vp.KeyMap = viewport.KeyMap{Up: aboutKeyMap.Up, Down: aboutKeyMap.Down, PageUp: aboutKeyMap.PgUp, PageDown: aboutKeyMap.PgDn}
+	return &aboutScreen{st: st, vp: vp}
+}
 
-func (s *aboutScreen) Title() string                       { return "About" }
-func (s *aboutScreen) Init() tea.Cmd                       { return nil }
-func (s *aboutScreen) Update(tea.Msg) (tea.Model, tea.Cmd) { return s, nil }
-func (s *aboutScreen) ShortHelp() []key.Binding            { return nil }
-func (s *aboutScreen) FullHelp() [][]key.Binding           { return nil }
-func (s *aboutScreen) View() string                        { return s.view }
+func (s *aboutScreen) Title() string { return "About" }
+func (s *aboutScreen) Init() tea.Cmd { return nil }
+func (s *aboutScreen) View() string  { return s.vp.View() }
+
+func (s *aboutScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
+	var cmd tea.Cmd
+	s.vp, cmd = s.vp.Update(msg)
+	return s, cmd
+}
+
+func (s *aboutScreen) ShortHelp() []key.Binding {
+	return []key.Binding{aboutKeyMap.Up, aboutKeyMap.Down}
+}
+
+func (s *aboutScreen) FullHelp() [][]key.Binding {
+	return [][]key.Binding{{aboutKeyMap.Up, aboutKeyMap.Down, aboutKeyMap.PgUp, aboutKeyMap.PgDn}}
+}
 
 func (s *aboutScreen) SetSize(w, h int) {
-	s.w, s.h = w, h
+	s.vp.Width, s.vp.Height = w, h
 	width := max(20, min(w, 96))
 	p := lipgloss.NewStyle().Width(width)
 	parts := []string{
 		s.st.Title.Render("dragdeck") + s.st.Muted.Render(" — excess drag of every tail, trended, priced and explained"),
+		"",
+		s.st.Flag.Render("Caution"),
+		p.Render(Caution),
 		"",
 		p.Render("Each cruise snapshot (weight, pressure altitude, Mach, air temperature, fuel flow, bank) becomes " +
 			"measured drag: thrust from fuel flow, less climb and acceleration. It is split into induced, wave and " +
@@ -44,15 +67,13 @@ func (s *aboutScreen) SetSize(w, h int) {
 		s.st.Header.Render("Units"),
 		p.Render("Weights in kg and t, altitudes in ft and flight levels (pressure altitude), temperatures in °C, " +
 			"fuel flow in kg/h, speeds as Mach, specific range in NM per tonne of fuel, drag as coefficients and " +
-			"drag counts (0.0001), deviations in % of baseline drag and trends in percentage points (pp) per 100 days."),
+			"drag counts (0.0001), deviations in % of baseline drag and trends in percentage points (pp) per 100 days. " +
+			"Times are UTC."),
 		"",
 		s.st.Header.Render("Screens"),
 		p.Render("Fleet: every tail, most severe first. Tail: when its drag rose, why it is flagged, what it costs. " +
 			"Flight: replay or live, the drag split, the turn penalty, the best Mach and level for this weight. " +
 			"Cruise: specific range by Mach and level for a weight. Turns: the cost of a bank."),
-		"",
-		s.st.Flag.Render("Caution"),
-		p.Render(Caution),
 	}
-	s.view = lipgloss.NewStyle().MaxWidth(w).MaxHeight(h).Render(strings.Join(parts, "\n"))
+	s.vp.SetContent(lipgloss.NewStyle().MaxWidth(w).Render(strings.Join(parts, "\n")))
 }

@@ -31,6 +31,8 @@ type chartSpec struct {
 	w, h                   int
 	minX, maxX, minY, maxY float64
 	xFmt, yFmt             linechart.LabelFormatter
+	xTicks                 []tick // labels at these x values (instead of xFmt's evenly spaced ones)
+	yTicks                 []tick // labels at these y values (instead of yFmt's every other row)
 	series                 []series
 	marks                  []vmark
 	axis                   lipgloss.Style
@@ -42,13 +44,45 @@ func (c chartSpec) render(empty string) string {
 	if c.w < 12 || c.h < 4 || !(c.maxX > c.minX) || !(c.maxY > c.minY) || math.IsNaN(c.minY) || math.IsNaN(c.maxY) {
 		return placeholder(c.w, c.h, empty)
 	}
+	xStep, xFmt := 3, c.xFmt
+	var gw int
+	if c.xTicks != nil || xFmt == nil {
+		// The chart asks for a label at every column; a tick's label goes
+		// to the column that holds its value, so labels sit at their
+		// values (the library skips one that would overlap the last).
+		xStep = 1
+		xFmt = func(i int, _ float64) string {
+			for _, t := range c.xTicks {
+				if col := int(math.Floor((t.v - c.minX) / (c.maxX - c.minX) * float64(gw))); col == i {
+					return t.label
+				}
+			}
+			return ""
+		}
+	}
+	yStep, yFmt := 2, c.yFmt
+	var gh int
+	if c.yTicks != nil {
+		// Likewise a label on every row, a tick's label on the row nearest
+		// to its value.
+		yStep = 1
+		yFmt = func(_ int, v float64) string {
+			half := (c.maxY - c.minY) / float64(max(gh, 1)) / 2
+			for _, t := range c.yTicks {
+				if v > t.v-half && v <= t.v+half {
+					return t.label
+				}
+			}
+			return ""
+		}
+	}
 	lc := linechart.New(c.w, c.h, c.minX, c.maxX, c.minY, c.maxY,
-		linechart.WithXYSteps(3, 2),
-		linechart.WithXLabelFormatter(c.xFmt),
-		linechart.WithYLabelFormatter(c.yFmt),
+		linechart.WithXYSteps(xStep, yStep),
+		linechart.WithXLabelFormatter(xFmt),
+		linechart.WithYLabelFormatter(yFmt),
 		linechart.WithStyles(c.axis, c.axis, c.axis))
+	gw, gh = lc.GraphWidth(), lc.GraphHeight()
 	lc.DrawXYAxisAndLabel()
-	gw, gh := lc.GraphWidth(), lc.GraphHeight()
 	if gw < 2 || gh < 2 {
 		return placeholder(c.w, c.h, empty)
 	}
@@ -96,10 +130,7 @@ func placeholder(w, h int, msg string) string {
 	for i := range lines {
 		lines[i] = strings.Repeat(" ", w)
 	}
-	if len([]rune(msg)) > w {
-		msg = string([]rune(msg)[:w])
-	}
-	lines[h/2] = lipgloss.PlaceHorizontal(w, lipgloss.Center, msg)
+	lines[h/2] = lipgloss.PlaceHorizontal(w, lipgloss.Center, truncate(msg, w))
 	return strings.Join(lines, "\n")
 }
 

@@ -17,14 +17,14 @@ type cruiseKeys struct {
 }
 
 var cruiseKeyMap = cruiseKeys{
-	Heavier: key.NewBinding(key.WithKeys("+", "="), key.WithHelp("+/-", "weight ±1 t")),
-	Lighter: key.NewBinding(key.WithKeys("-"), key.WithHelp("-", "weight −1 t")),
-	Up:      key.NewBinding(key.WithKeys("up", "k"), key.WithHelp("↑/↓", "level ±1000 ft")),
-	Down:    key.NewBinding(key.WithKeys("down", "j"), key.WithHelp("↓/j", "level −1000 ft")),
-	CIUp:    key.NewBinding(key.WithKeys("]"), key.WithHelp("[/]", "cost index ±5")),
+	Heavier: key.NewBinding(key.WithKeys("+", "="), key.WithHelp("+", "heavier 1 t")),
+	Lighter: key.NewBinding(key.WithKeys("-"), key.WithHelp("-", "lighter 1 t")),
+	Up:      key.NewBinding(key.WithKeys("up", "k"), key.WithHelp("↑/k", "1000 ft higher")),
+	Down:    key.NewBinding(key.WithKeys("down", "j"), key.WithHelp("↓/j", "1000 ft lower")),
+	CIUp:    key.NewBinding(key.WithKeys("]"), key.WithHelp("]", "cost index +5")),
 	CIDown:  key.NewBinding(key.WithKeys("["), key.WithHelp("[", "cost index −5")),
-	Warmer:  key.NewBinding(key.WithKeys("I"), key.WithHelp("i/I", "ISA dev ∓5 °C")),
-	Colder:  key.NewBinding(key.WithKeys("i"), key.WithHelp("i", "ISA dev −5 °C")),
+	Warmer:  key.NewBinding(key.WithKeys("I"), key.WithHelp("I", "ISA +5 °C")),
+	Colder:  key.NewBinding(key.WithKeys("i"), key.WithHelp("i", "ISA −5 °C")),
 }
 
 // conditionMsg tells the root that the cruise condition was changed here.
@@ -48,11 +48,13 @@ func (s *cruiseScreen) Title() string { return "Cruise" }
 func (s *cruiseScreen) Init() tea.Cmd { return nil }
 
 func (s *cruiseScreen) ShortHelp() []key.Binding {
-	return []key.Binding{cruiseKeyMap.Heavier, cruiseKeyMap.Up, cruiseKeyMap.CIUp, cruiseKeyMap.Warmer}
+	k := cruiseKeyMap
+	return []key.Binding{k.Heavier, k.Lighter, k.Up, k.Down}
 }
 
 func (s *cruiseScreen) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{cruiseKeyMap.Heavier, cruiseKeyMap.Lighter, cruiseKeyMap.Up, cruiseKeyMap.Down}, {cruiseKeyMap.CIUp, cruiseKeyMap.CIDown, cruiseKeyMap.Warmer, cruiseKeyMap.Colder}}
+	k := cruiseKeyMap
+	return [][]key.Binding{{k.Heavier, k.Lighter, k.Up, k.Down}, {k.CIUp, k.CIDown, k.Warmer, k.Colder}}
 }
 
 func (s *cruiseScreen) SetSize(w, h int) {
@@ -121,10 +123,10 @@ func (s *cruiseScreen) render() {
 	nmT := func(sr float64) float64 { return sr / model.NauticalMile * 1000 }
 	who := "baseline polar"
 	if c.Tail != "" && !math.IsNaN(c.ExcessPct) {
-		who = fmt.Sprintf("%s's own polar: drag %+.2f %% (%+.1f counts here)", c.Tail, c.ExcessPct, c.excess(s.t)/model.DragCount)
+		who = fmt.Sprintf("%s's own polar: its recent level, drag %+.2f %% (%+.1f counts here)", clean(c.Tail), c.ExcessPct, c.excess(s.t)/model.DragCount)
 	}
-	title := s.st.Title.Render("Cruise") + s.st.Muted.Render(truncate(fmt.Sprintf("  %.1f t · FL%03.0f · ISA %+.0f °C · cost index %g kg/min",
-		c.Weight/1000, c.Altitude/model.Foot/100, c.ISADev, c.CostIndex), s.w-6)) + "\n" + s.st.Muted.Render(truncate(who, s.w))
+	title := truncate(s.st.Title.Render("Cruise")+s.st.Muted.Render(fmt.Sprintf("  %.1f t · FL%03.0f · ISA %+.0f °C · cost index %g kg/min",
+		c.Weight/1000, c.Altitude/model.Foot/100, c.ISADev, c.CostIndex)), s.w) + "\n" + s.st.Muted.Render(truncate(who, s.w))
 	lines := []string{
 		fmt.Sprintf("%-16s %9s %9s", "", "baseline", "own"),
 	}
@@ -133,8 +135,8 @@ func (s *cruiseScreen) render() {
 	lines = append(lines,
 		row("minimum drag M", m(b.MinDrag), m(tl.MinDrag)),
 		s.st.Accent.Render(row("max range M", m(b.MaxRange), m(tl.MaxRange))),
-		s.st.Drift.Render(row("long range M", m(b.LongRange), m(tl.LongRange))),
-		s.st.Event.Render(row(fmt.Sprintf("economy M CI%g", c.CostIndex), m(b.Econ), m(tl.Econ))),
+		s.st.Text.Render(row("long range M", m(b.LongRange), m(tl.LongRange))),
+		s.st.Header.Render(row(fmt.Sprintf("economy M CI%g", c.CostIndex), m(b.Econ), m(tl.Econ))),
 		row("best SR NM/t", fmt.Sprintf("%.1f", nmT(b.MaxRange.SR)), fmt.Sprintf("%.1f", nmT(tl.MaxRange.SR))),
 		row("fuel kg/h at MR", fmt.Sprintf("%.0f", b.MaxRange.FuelFlow*model.Hour), fmt.Sprintf("%.0f", tl.MaxRange.FuelFlow*model.Hour)),
 		row("optimum FL", fmt.Sprintf("%03.0f", b.OptimumAltitude/model.Foot/100), fmt.Sprintf("%03.0f", tl.OptimumAltitude/model.Foot/100)),
@@ -174,10 +176,11 @@ func (s *cruiseScreen) srChart(w, h int) string {
 		xFmt:   func(_ int, v float64) string { return fmt.Sprintf("M%.2f", v) },
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.0f", v) },
 		series: []series{{points: b, line: true, style: s.st.Base}, {points: t, line: true, style: s.st.Flag}},
-		marks:  []vmark{{x: s.tail.MaxRange.Mach, style: s.st.Accent}, {x: s.tail.LongRange.Mach, style: s.st.Drift}, {x: s.tail.Econ.Mach, style: s.st.Event}}}
+		xTicks: niceTicks(lo, hi, max(1, w/9), func(v float64) string { return fmt.Sprintf("M%.2f", v) }),
+		marks:  []vmark{{x: s.tail.MaxRange.Mach, style: s.st.Accent}}}
 	legend := s.st.Muted.Render("SR NM/t vs Mach: ") + s.st.Base.Render("baseline") + " " + s.st.Flag.Render("own") +
-		s.st.Muted.Render(" | ") + s.st.Accent.Render("max range") + " " + s.st.Drift.Render("long range") + " " + s.st.Event.Render("econ")
-	return lipgloss.NewStyle().MaxWidth(w).Render(legend) + "\n" + spec.render("no range")
+		s.st.Muted.Render(" · ") + s.st.Accent.Render("│ own max range")
+	return truncate(legend, w) + "\n" + spec.render("no range")
 }
 
 // levels lists specific range at each flight level for both polars.

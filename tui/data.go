@@ -2,77 +2,32 @@ package tui
 
 import (
 	"math"
-	"sort"
-	"time"
 
-	"dragdeck/feed"
+	"dragdeck/feed/demo"
+	"dragdeck/feed/pipeline"
 	"dragdeck/model"
 )
 
-// Data is what the dashboard shows: a fleet's assessment and the snapshots
-// behind it.
+// Data is what the dashboard shows: the fleet pipeline's result and where
+// its snapshots came from. The dashboard computes nothing of its own from
+// it; it presents it.
 type Data struct {
-	Source  string // where the snapshots came from
-	Type    *model.Type
-	Config  model.TrendConfig
-	Fleet   model.Fleet
-	Stats   feed.Stats
-	First   time.Time
-	Last    time.Time
-	Records map[string][]feed.Record // by tail, in time order
+	Source string // where the snapshots came from
+	*pipeline.Result
 }
 
-// NewData assesses a loaded fleet for the dashboard.
-func NewData(source string, t *model.Type, fd *feed.FleetData, events map[string][]model.Event, c model.TrendConfig) *Data {
-	for _, recs := range fd.Records {
-		sort.SliceStable(recs, func(i, j int) bool { return recs[i].Time.Before(recs[j].Time) })
-	}
-	return &Data{
-		Source: source, Type: t, Config: c,
-		Fleet: model.AssessFleet(fd.Trends(events, c), c),
-		Stats: fd.Stats, First: fd.First, Last: fd.Last, Records: fd.Records,
-	}
-}
+// NewData wraps a pipeline result for the dashboard.
+func NewData(source string, r *pipeline.Result) *Data { return &Data{Source: source, Result: r} }
 
 // DemoData is the built-in demo fleet, made in memory.
 func DemoData() (*Data, error) {
-	d, err := feed.NewDemoFleet(feed.DemoConfig{})
+	d, err := demo.NewFleet(demo.Config{})
 	if err != nil {
 		return nil, err
 	}
-	t := feed.DemoType()
-	fd := feed.FleetFromRecords(d.Records, d.Stats, t, true)
-	events := map[string][]model.Event{}
-	for _, e := range d.Truth.Events {
-		at, _ := time.Parse(time.RFC3339, e.Time)
-		events[e.Tail] = append(events[e.Tail], model.Event{Time: at, Kind: e.Kind, Note: e.Note})
-	}
-	return NewData("built-in demo: "+feed.DemoAirline, t, fd, events, model.DefaultTrendConfig()), nil
-}
-
-// tail returns the assessment of one tail.
-func (d *Data) tail(name string) (model.TailAssessment, bool) {
-	for _, a := range d.Fleet.Tails {
-		if a.Tail == name {
-			return a, true
-		}
-	}
-	return model.TailAssessment{}, false
-}
-
-// flightRecords returns the records of flight f of the tail, in time order.
-func (d *Data) flightRecords(tail string, f model.FlightPoint, gapHours float64) []feed.Record {
-	recs := d.Records[tail]
-	i := sort.Search(len(recs), func(i int) bool { return !recs[i].Time.Before(f.Time) })
-	var out []feed.Record
-	for ; i < len(recs); i++ {
-		r := recs[i]
-		if r.Flight != f.Flight || (len(out) > 0 && r.Time.Sub(out[len(out)-1].Time).Hours() > gapHours) {
-			break
-		}
-		out = append(out, r)
-	}
-	return out
+	r := pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Type: d.Type, Events: d.Events(),
+		Config: model.DefaultTrendConfig(), KeepRecords: true})
+	return NewData("built-in demo: "+demo.Airline, r), nil
 }
 
 // Condition is the cruise condition the Cruise and Turns screens work at:
@@ -88,28 +43,27 @@ type Condition struct {
 	ExcessPct float64 // the tail's recent drag deviation, %; NaN when unknown
 }
 
-// excess returns the condition's excess as an added drag coefficient: the
-// deviation taken as lift-independent at this weight, level and Mach.
+// excess returns the condition's excess as an added drag coefficient.
 func (c Condition) excess(t *model.Type) float64 {
-	if math.IsNaN(c.ExcessPct) {
-		return 0
-	}
-	l := model.LevelFlight(t, c.Weight, model.AirISA(c.Altitude, c.ISADev), c.Mach, 0)
-	return c.ExcessPct / 100 * l.CD
+	return model.ExcessFromDeviation(t, c.Weight, model.AirISA(c.Altitude, c.ISADev), c.Mach, c.ExcessPct)
 }
 
-// typicalCondition is a tail's median cruise: weight, level, Mach and ISA
-// deviation of its snapshots.
-func typicalCondition(t *model.Type, tail string, recs []feed.Record, excessPct float64) Condition {
-	c := Condition{Tail: tail, Weight: 65000, Altitude: 35000 * model.Foot, Mach: math.Min(0.78, t.MMO-0.02), ExcessPct: excessPct}
-	if len(recs) == 0 {
-		return c
+// defaultCondition is the cruise shown before any tail is chosen.
+func defaultCondition(t *model.Type) Condition {
+	m := 0.78
+	if t != nil {
+		m = math.Min(m, t.MMO-0.02)
 	}
-	w, h, m, dev := make([]float64, len(recs)), make([]float64, len(recs)), make([]float64, len(recs)), make([]float64, len(recs))
-	for i, r := range recs {
-		w[i], h[i], m[i] = r.Snap.Weight, r.Snap.Altitude, r.Snap.Mach
-		dev[i] = model.AirAt(r.Snap.Altitude, r.Snap.SAT).ISADev()
+	return Condition{Weight: 65000, Altitude: 35000 * model.Foot, Mach: m, ExcessPct: math.NaN()}
+}
+
+// tailCondition is a tail's typical cruise (the medians of its usable
+// snapshots, from the pipeline) with its recent level as its excess.
+func tailCondition(t *model.Type, a model.TailAssessment) Condition {
+	c := defaultCondition(t)
+	c.Tail, c.ExcessPct = a.Tail, a.RecentPct
+	if ty := a.Typical; !math.IsNaN(ty.Weight) {
+		c.Weight, c.Altitude, c.Mach, c.ISADev = ty.Weight, ty.Altitude, ty.Mach, ty.ISADev
 	}
-	c.Weight, c.Altitude, c.Mach, c.ISADev = model.Median(w), model.Median(h), model.Median(m), model.Median(dev)
 	return c
 }

@@ -1,8 +1,10 @@
 package tui
 
 import (
+	"cmp"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -20,13 +22,39 @@ import (
 type openTailMsg struct{ tail string }
 
 type fleetKeys struct {
-	Up, Down, PgUp, PgDn, Open, Filter, Clear key.Binding
+	Up, Down, PgUp, PgDn, Home, End, Open, Sort, Filter, Keep, Clear key.Binding
 }
 
 var fleetKeyMap = fleetKeys{
-	Up: keyUp, Down: keyDown, PgUp: keyPgUp, PgDn: keyPgDn, Open: keyEnter,
-	Filter: key.NewBinding(key.WithKeys("/"), key.WithHelp("/", "filter tails")),
-	Clear:  key.NewBinding(key.WithKeys("esc"), key.WithHelp("esc", "clear filter")),
+	Up: keyUp, Down: keyDown, PgUp: keyPgUp, PgDn: keyPgDn, Home: keyHome, End: keyEnd, Open: keyEnter,
+	Sort: keySort, Filter: keyFilter, Keep: keyFilterKeep, Clear: keyFilterDrop,
+}
+
+// The Fleet screen's orders, cycled by the sort key. Severity is the
+// pipeline's own order (model.AssessFleet); the numeric ones put the
+// largest first and tails without a value last.
+var fleetOrders = []struct {
+	name string
+	less func(a, b model.TailAssessment) int
+}{
+	{"severity", nil},
+	{"tail", func(a, b model.TailAssessment) int { return cmp.Compare(a.Tail, b.Tail) }},
+	{"deviation", func(a, b model.TailAssessment) int { return descending(a.RecentPct, b.RecentPct) }},
+	{"drift", func(a, b model.TailAssessment) int { return descending(a.Drift.Slope, b.Drift.Slope) }},
+	{"fuel", func(a, b model.TailAssessment) int { return descending(a.ExcessFuel, b.ExcessFuel) }},
+}
+
+// descending orders larger values first and NaN last.
+func descending(a, b float64) int {
+	switch an, bn := math.IsNaN(a), math.IsNaN(b); {
+	case an && bn:
+		return 0
+	case an:
+		return 1
+	case bn:
+		return -1
+	}
+	return cmp.Compare(b, a)
 }
 
 // fleetScreen lists every tail, most severe first.
@@ -36,13 +64,15 @@ type fleetScreen struct {
 	w, h      int
 	cursor    int
 	offset    int
+	order     int // index in fleetOrders
 	filter    textinput.Model
 	filtering bool
-	rows      []model.TailAssessment // after the filter
+	rows      []model.TailAssessment // after the filter, in the chosen order
 	sparkLo   float64
 	sparkHi   float64
 	sparks    map[string]string // per tail, drawn for width sparkW
 	sparkW    int
+	empty     string // what the screen says without data
 	view      string
 }
 
@@ -52,7 +82,7 @@ func newFleetScreen(st Styles) *fleetScreen {
 	ti.Placeholder = "tail or flag"
 	ti.CharLimit = 32
 	ti.Cursor.SetMode(cursor.CursorStatic) // no blink timer
-	return &fleetScreen{st: st, filter: ti}
+	return &fleetScreen{st: st, filter: ti, empty: "no data"}
 }
 
 func (s *fleetScreen) Title() string { return "Fleet" }
@@ -62,14 +92,16 @@ func (s *fleetScreen) Init() tea.Cmd { return nil }
 func (s *fleetScreen) Capturing() bool { return s.filtering }
 
 func (s *fleetScreen) ShortHelp() []key.Binding {
+	k := fleetKeyMap
 	if s.filtering {
-		return []key.Binding{key.NewBinding(key.WithKeys("enter"), key.WithHelp("enter", "keep filter")), fleetKeyMap.Clear}
+		return []key.Binding{k.Keep, k.Clear}
 	}
-	return []key.Binding{fleetKeyMap.Up, fleetKeyMap.Down, fleetKeyMap.Open, fleetKeyMap.Filter}
+	return []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter}
 }
 
 func (s *fleetScreen) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{fleetKeyMap.Up, fleetKeyMap.Down, fleetKeyMap.PgUp, fleetKeyMap.PgDn}, {fleetKeyMap.Open, fleetKeyMap.Filter, fleetKeyMap.Clear}}
+	k := fleetKeyMap
+	return [][]key.Binding{{k.Up, k.Down, k.PgUp, k.PgDn, k.Home, k.End}, {k.Open, k.Sort, k.Filter, k.Keep, k.Clear}}
 }
 
 // SetData gives the screen its fleet.
@@ -86,6 +118,12 @@ func (s *fleetScreen) SetData(d *Data) {
 	s.applyFilter()
 }
 
+// SetEmpty sets what the screen says while it has no fleet.
+func (s *fleetScreen) SetEmpty(msg string) {
+	s.empty = msg
+	s.render()
+}
+
 func (s *fleetScreen) SetSize(w, h int) {
 	s.w, s.h = w, h
 	s.render()
@@ -99,13 +137,26 @@ func (s *fleetScreen) selected() (string, bool) {
 	return s.rows[s.cursor].Tail, true
 }
 
+// applyFilter rebuilds the rows from the filter and the order, keeping the
+// selected tail selected when it is still shown.
 func (s *fleetScreen) applyFilter() {
+	sel, had := s.selected()
 	s.rows = s.rows[:0]
 	if s.data != nil {
 		q := strings.ToLower(strings.TrimSpace(s.filter.Value()))
 		for _, a := range s.data.Fleet.Tails {
 			if q == "" || strings.Contains(strings.ToLower(a.Tail), q) || strings.Contains(strings.Join(a.Flags, " "), q) {
 				s.rows = append(s.rows, a)
+			}
+		}
+		if less := fleetOrders[s.order].less; less != nil {
+			slices.SortStableFunc(s.rows, less)
+		}
+	}
+	if had {
+		for i, a := range s.rows {
+			if a.Tail == sel {
+				s.cursor = i
 			}
 		}
 	}
@@ -118,12 +169,13 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	if !ok {
 		return s, nil
 	}
+	k := fleetKeyMap
 	if s.filtering {
-		switch km.String() {
-		case "enter":
+		switch {
+		case key.Matches(km, k.Keep):
 			s.filtering = false
 			s.filter.Blur()
-		case "esc":
+		case key.Matches(km, k.Clear):
 			s.filtering = false
 			s.filter.Blur()
 			s.filter.SetValue("")
@@ -138,23 +190,31 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	}
 	page := max(1, s.listHeight()-1)
 	switch {
-	case key.Matches(km, fleetKeyMap.Up):
+	case key.Matches(km, k.Up):
 		s.cursor--
-	case key.Matches(km, fleetKeyMap.Down):
+	case key.Matches(km, k.Down):
 		s.cursor++
-	case key.Matches(km, fleetKeyMap.PgUp):
+	case key.Matches(km, k.PgUp):
 		s.cursor -= page
-	case key.Matches(km, fleetKeyMap.PgDn):
+	case key.Matches(km, k.PgDn):
 		s.cursor += page
-	case key.Matches(km, fleetKeyMap.Filter):
+	case key.Matches(km, k.Home):
+		s.cursor = 0
+	case key.Matches(km, k.End):
+		s.cursor = len(s.rows) - 1
+	case key.Matches(km, k.Sort):
+		s.order = (s.order + 1) % len(fleetOrders)
+		s.applyFilter()
+		return s, nil
+	case key.Matches(km, k.Filter):
 		s.filtering = true
 		s.render()
 		return s, s.filter.Focus()
-	case key.Matches(km, fleetKeyMap.Clear) && s.filter.Value() != "":
+	case key.Matches(km, k.Clear) && s.filter.Value() != "":
 		s.filter.SetValue("")
 		s.applyFilter()
 		return s, nil
-	case key.Matches(km, fleetKeyMap.Open):
+	case key.Matches(km, k.Open):
 		if t, ok := s.selected(); ok {
 			return s, func() tea.Msg { return openTailMsg{t} }
 		}
@@ -167,19 +227,24 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	return s, nil
 }
 
+// fleetHeadLines is the number of lines above the table's rows: the
+// source, the counts, the summary and the two-line column header.
+const fleetHeadLines = 5
+
 // listHeight is the number of table rows that fit.
-func (s *fleetScreen) listHeight() int { return max(1, s.h-4) }
+func (s *fleetScreen) listHeight() int { return max(1, s.h-fleetHeadLines) }
 
 func (s *fleetScreen) View() string { return s.view }
 
 // Column widths of the table; the sparkline takes what is left.
 const (
+	colMark  = markW
 	colTail  = 8
 	colDev   = 7
-	colDrift = 7
+	colDrift = 8
 	colStep  = 17
 	colFuel  = 7
-	colFlags = 17
+	colFlags = 14
 )
 
 func (s *fleetScreen) render() {
@@ -187,39 +252,43 @@ func (s *fleetScreen) render() {
 		return
 	}
 	if s.data == nil {
-		s.view = placeholder(s.w, s.h, "no data")
+		s.view = placeholder(s.w, s.h, s.empty)
 		return
 	}
-	d := s.data
+	d, c := s.data, s.data.Config
 	var b strings.Builder
 	span := "no snapshots"
 	if !d.First.IsZero() {
-		span = d.First.Format("2006-01-02") + " … " + d.Last.Format("2006-01-02")
+		span = d.First.Format("2006-01-02") + " … " + d.Last.Format("2006-01-02") + " UTC"
 	}
-	head := fmt.Sprintf("%s · %s · %d tails · %d snapshots · %d rejected · %s",
-		d.Source, d.Type.Name, len(d.Fleet.Tails), d.Stats.Accepted, d.Stats.Rejected, span)
-	b.WriteString(s.st.Muted.Render(truncate(head, s.w)) + "\n")
-	summary := fmt.Sprintf("fleet median recent deviation %s %% · ", fmtSigned(d.Fleet.MedianRecentPct, 2))
+	b.WriteString(s.st.Muted.Render(truncate(clean(d.Source)+" · "+d.Type.Name, s.w)) + "\n")
+	counts := fmt.Sprintf("%d tails · %d snapshots · %d rejected · %s", len(d.Fleet.Tails), d.Stats.Accepted, d.Stats.Rejected, span)
+	b.WriteString(s.st.Muted.Render(truncate(counts, s.w)) + "\n")
+	summary := fmt.Sprintf("fleet median %s %% · ", fmtSigned(d.Fleet.MedianRecentPct, 2))
 	flagged := fmt.Sprintf("%d flagged", d.Fleet.Flagged)
 	if d.Fleet.Flagged > 0 {
 		flagged = s.st.Flag.Render(flagged)
 	}
-	line2 := summary + flagged
+	line2 := summary + flagged + s.st.Muted.Render(" · by "+fleetOrders[s.order].name)
 	if s.filtering || s.filter.Value() != "" {
 		line2 += "   " + s.filter.View()
 	}
-	b.WriteString(line2 + "\n")
-	spark := max(0, s.w-colTail-colDev-colDrift-colStep-colFuel-colFlags-6)
-	header := pad("tail", colTail) + padL("dev %", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel t", colFuel) + " " + pad("flags", colFlags) + " " + pad("per-flight deviation", spark)
-	b.WriteString(s.st.Header.Render(truncate(header, s.w)) + "\n")
+	b.WriteString(truncate(line2, s.w) + "\n")
+	spark := max(0, s.w-colMark-colTail-colDev-colDrift-colStep-colFuel-colFlags-4)
+	// Two header lines: what each column is, then its unit and period.
+	h1 := pad("", colMark) + pad("tail", colTail) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
+		padL("fuel", colFuel) + " " + pad("flags", colFlags) + " " + pad("per flight", spark)
+	h2 := pad("", colMark) + pad("", colTail) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
+		padL("t/yr", colFuel) + " " + pad("", colFlags) + " " + pad("dev %, all", spark)
+	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
+	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {
 		msg := "no tails"
 		if s.filter.Value() != "" {
 			msg = "no tail matches the filter"
 		}
 		b.WriteString(s.st.Muted.Render(msg) + "\n")
-		s.view = b.String()
+		s.view = strings.TrimSuffix(b.String(), "\n")
 		return
 	}
 	lh := s.listHeight()
@@ -231,38 +300,40 @@ func (s *fleetScreen) render() {
 	}
 	s.offset = max(0, min(s.offset, max(0, len(s.rows)-lh)))
 	for i := s.offset; i < min(len(s.rows), s.offset+lh); i++ {
-		a := s.rows[i]
-		step := "-"
-		stepStyle := s.st.Text
-		if k := len(a.Steps); k > 0 {
-			st := a.Steps[k-1]
-			step = st.Time.Format("2006-01-02") + " " + fmtSigned(st.SizePct, 1)
-			if st.SizePct < 0 {
-				stepStyle = s.st.Improve
-			} else {
-				stepStyle = s.st.Flag
-			}
-		}
-		flags := strings.Join(a.Flags, " ")
-		if flags == "" {
-			flags = "-"
-		}
-		spk := s.sparkFor(a, spark)
-		num := pad(a.Tail, colTail) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
-		fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + " "
-		var line string
-		if i == s.cursor {
-			line = s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+pad(flags, colFlags)+" "+spk, s.w))
-		} else {
-			flagCell := pad(flags, colFlags)
-			if len(a.Flags) > 0 {
-				flagCell = s.st.Flag.Render(flagCell)
-			}
-			line = num + stepStyle.Render(pad(step, colStep)) + fuel + flagCell + " " + s.st.Accent.Render(spk)
-		}
-		b.WriteString(line + "\n")
+		b.WriteString(s.row(s.rows[i], i == s.cursor, spark) + "\n")
 	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.TrimSuffix(b.String(), "\n"))
+}
+
+// row draws one tail; the selected row starts with the selection marker
+// (visible without colour) and is drawn reversed.
+func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) string {
+	step := "-"
+	stepStyle := s.st.Text
+	if k := len(a.Steps); k > 0 {
+		st := a.Steps[k-1]
+		step = st.Time.Format("2006-01-02") + " " + fmtSigned(st.SizePct, 1)
+		if st.SizePct < 0 {
+			stepStyle = s.st.Improve
+		} else {
+			stepStyle = s.st.Flag
+		}
+	}
+	flags := strings.Join(a.Flags, " ")
+	if flags == "" {
+		flags = "-"
+	}
+	spk := s.sparkFor(a, spark)
+	num := pad(clean(a.Tail), colTail) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
+	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + " "
+	if selected {
+		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+pad(flags, colFlags)+" "+spk, s.w-colMark))
+	}
+	flagCell := pad(flags, colFlags)
+	if len(a.Flags) > 0 {
+		flagCell = s.st.Flag.Render(flagCell)
+	}
+	return truncate(noMark+num+stepStyle.Render(pad(step, colStep))+fuel+flagCell+" "+s.st.Accent.Render(spk), s.w)
 }
 
 // sparkFor returns the tail's sparkline of width w, drawn once per data and
@@ -283,8 +354,9 @@ func (s *fleetScreen) sparkFor(a model.TailAssessment, w int) string {
 	return sp
 }
 
-// percentileRange returns the 2nd and 98th percentiles of v (a scale that
-// outliers do not flatten), or 0…1 without data.
+// percentileRange returns the 2nd and 98th percentiles of v, the display
+// scale of the sparklines (one that outliers do not flatten), or 0…1
+// without data.
 func percentileRange(v []float64) (float64, float64) {
 	if len(v) == 0 {
 		return 0, 1
@@ -303,30 +375,4 @@ func fmtSigned(v float64, prec int) string {
 		return "-"
 	}
 	return fmt.Sprintf("%+.*f", prec, v)
-}
-
-// pad left-aligns s in w cells; padL right-aligns it.
-func pad(s string, w int) string {
-	s = truncate(s, w)
-	return s + strings.Repeat(" ", max(0, w-lipgloss.Width(s)))
-}
-
-func padL(s string, w int) string {
-	s = truncate(s, w)
-	return strings.Repeat(" ", max(0, w-lipgloss.Width(s))) + s
-}
-
-// truncate cuts plain text to w cells.
-func truncate(s string, w int) string {
-	if w <= 0 {
-		return ""
-	}
-	r := []rune(s)
-	if len(r) <= w {
-		return s
-	}
-	if w == 1 {
-		return "…"
-	}
-	return string(r[:w-1]) + "…"
 }

@@ -37,35 +37,54 @@ var flightKeyMap = flightKeys{
 	End:    key.NewBinding(key.WithKeys("G", "end"), key.WithHelp("G", "to end")),
 }
 
-// maxReplayWait caps the wait between two snapshots on screen.
-const maxReplayWait = 2 * time.Second
+// maxReplayWait caps the wait between two snapshots on screen; minFrame
+// is the shortest, so that a replay at no waiting still lets the screen
+// draw.
+const (
+	maxReplayWait = 2 * time.Second
+	minFrame      = 20 * time.Millisecond
+)
 
-// flightScreen replays a flight or follows a live file.
+// after schedules a message after d; tests replace it to run replays
+// without waiting.
+var after = tea.Tick
+
+// flightScreen replays a flight (paced by a feed.Player) or follows a live
+// file.
 type flightScreen struct {
 	t       *model.Type
+	cfg     model.TrendConfig
 	st      Styles
 	w, h    int
 	tail    string
 	flight  string
 	recs    []feed.Record // the whole replay, or what has arrived live
 	points  []model.Point // analysis of recs[:pos]
-	pos     int           // snapshots shown
+	left    []string      // per point, why the trend leaves it out ("" if usable)
+	player  *feed.Player
+	pos     int // snapshots shown
 	playing bool
-	speed   float64 // times real time; 0: as fast as the screen goes
+	speed   float64 // times real time; 0: no waiting
 	gen     int
 	live    bool
 	source  string
 	notice  string
 	ci      float64 // cost index, kg/min
+	// level is the tail's recent drag deviation, %, from the pipeline (NaN
+	// when unknown: then the flight's own median so far is used).
+	level float64
 
-	opt       model.Optimum // for the current snapshot and the flight's own polar
+	opt       model.Optimum // for the current snapshot and the own polar
 	optOK     bool
 	bank      model.BankRow
-	excessPct float64
+	excessPct float64 // the own polar's deviation, %
+	ownFrom   string  // where excessPct comes from
 	view      string
 }
 
-func newFlightScreen(st Styles) *flightScreen { return &flightScreen{st: st, speed: 60} }
+func newFlightScreen(st Styles) *flightScreen {
+	return &flightScreen{st: st, speed: 60, level: math.NaN(), cfg: model.DefaultTrendConfig()}
+}
 
 func (s *flightScreen) Title() string { return "Flight" }
 
@@ -90,11 +109,15 @@ func (s *flightScreen) SetSize(w, h int) {
 	s.render()
 }
 
-// Replay starts a replay of recs (time order) at speed, playing.
-func (s *flightScreen) Replay(t *model.Type, tail, flight string, recs []feed.Record, speed float64) tea.Cmd {
-	s.t, s.tail, s.flight, s.recs, s.live, s.source, s.notice = t, tail, flight, recs, false, "", ""
-	s.speed = speed
-	s.points = s.points[:0]
+// Replay starts a replay of recs (time order) at speed, playing. cfg says
+// which snapshots the trend leaves out; level is the tail's recent
+// deviation, % (NaN when unknown).
+func (s *flightScreen) Replay(t *model.Type, cfg model.TrendConfig, tail, flight string, recs []feed.Record, speed, level float64) tea.Cmd {
+	s.t, s.cfg, s.tail, s.flight, s.recs, s.live, s.source, s.notice = t, cfg, tail, flight, recs, false, "", ""
+	s.speed, s.level = speed, level
+	s.player = feed.NewPlayer(recs, speed)
+	s.player.MaxWait = maxReplayWait
+	s.points, s.left = s.points[:0], s.left[:0]
 	s.pos = 0
 	s.gen++
 	s.playing = len(recs) > 0
@@ -103,9 +126,10 @@ func (s *flightScreen) Replay(t *model.Type, tail, flight string, recs []feed.Re
 }
 
 // Live switches the screen to records arriving from source.
-func (s *flightScreen) Live(t *model.Type, source string) {
-	s.t, s.source, s.live, s.playing = t, source, true, false
-	s.recs, s.points, s.pos, s.tail, s.flight, s.notice = nil, nil, 0, "", "", ""
+func (s *flightScreen) Live(t *model.Type, cfg model.TrendConfig, source string) {
+	s.t, s.cfg, s.source, s.live, s.playing, s.level = t, cfg, source, true, false, math.NaN()
+	s.recs, s.points, s.left, s.pos, s.tail, s.flight, s.notice = nil, nil, nil, 0, "", "", ""
+	s.player = nil
 	s.gen++
 	s.render()
 }
@@ -122,30 +146,43 @@ func (s *flightScreen) current() (feed.Record, model.Point, bool) {
 func (s *flightScreen) seek(n int) {
 	n = max(0, min(n, len(s.recs)))
 	for len(s.points) < n {
-		s.points = append(s.points, model.Analyze(s.t, s.recs[len(s.points)].Snap))
+		r := s.recs[len(s.points)]
+		p := model.Analyze(s.t, r.Snap)
+		s.points = append(s.points, p)
+		s.left = append(s.left, s.cfg.Usable(model.NewTrendPoint(r.Time, r.Flight, r.Snap, p)))
 	}
-	s.points = s.points[:n]
+	s.points, s.left = s.points[:n], s.left[:n]
 	s.pos = n
+	if s.player != nil {
+		s.player.Seek(n)
+	}
 	s.update()
 }
 
-// update recomputes what depends on the current snapshot.
+// update recomputes what depends on the current snapshot: the optimum and
+// the bank penalty, with the own polar at the tail's recent level (or,
+// unknown, the median of this flight's usable snapshots so far).
 func (s *flightScreen) update() {
 	s.optOK = false
-	r, p, ok := s.current()
+	r, _, ok := s.current()
 	if ok {
-		devs := make([]float64, s.pos)
-		for i := range devs {
-			devs[i] = s.points[i].DragDevPct
+		s.excessPct, s.ownFrom = s.level, "tail's recent level"
+		if math.IsNaN(s.level) {
+			var devs []float64
+			for i := range s.pos {
+				if s.left[i] == "" {
+					devs = append(devs, s.points[i].DragDevPct)
+				}
+			}
+			s.excessPct, s.ownFrom = model.Median(devs), "this flight so far"
 		}
-		s.excessPct = model.Median(devs)
 		air := model.AirAt(r.Snap.Altitude, r.Snap.SAT)
-		excess := s.excessPct / 100 * p.CDBaseline
+		excess := model.ExcessFromDeviation(s.t, r.Snap.Weight, air, r.Snap.Mach, s.excessPct)
 		if s.t.CD0+excess > 0 {
 			s.opt = model.CruiseOptimum(s.t, r.Snap.Weight, r.Snap.Altitude, air.ISADev(), s.ci/model.Minute, excess)
 			s.optOK = true
 		}
-		s.bank = model.BankPenalty(s.t, r.Snap.Weight, air, r.Snap.Mach, 0, r.Snap.Bank)
+		s.bank = model.BankPenalty(s.t, r.Snap.Weight, air, r.Snap.Mach, excess, r.Snap.Bank)
 		if s.tail == "" {
 			s.tail, s.flight = r.Tail, r.Flight
 		}
@@ -153,19 +190,15 @@ func (s *flightScreen) update() {
 	s.render()
 }
 
-// schedule asks for the next replay tick.
+// schedule asks for the next replay tick, after the player's wait.
 func (s *flightScreen) schedule() tea.Cmd {
-	if !s.playing || s.live || s.pos >= len(s.recs) {
+	if !s.playing || s.live || s.player == nil || s.pos >= len(s.recs) {
 		s.playing = s.playing && s.pos < len(s.recs)
 		return nil
 	}
-	wait := 50 * time.Millisecond
-	if s.speed > 0 && s.pos > 0 {
-		gap := s.recs[s.pos].Time.Sub(s.recs[s.pos-1].Time)
-		wait = min(maxReplayWait, max(20*time.Millisecond, time.Duration(float64(gap)/s.speed)))
-	}
+	s.player.Speed = s.speed
 	gen := s.gen
-	return tea.Tick(wait, func(time.Time) tea.Msg { return replayTickMsg{gen} })
+	return after(max(minFrame, s.player.Wait()), func(time.Time) tea.Msg { return replayTickMsg{gen} })
 }
 
 func (s *flightScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
@@ -248,7 +281,7 @@ func (s *flightScreen) render() {
 	var head string
 	switch {
 	case s.live:
-		head = s.st.Flag.Render("● LIVE") + s.st.Muted.Render(fmt.Sprintf("  following %s · %d snapshots", s.source, len(s.recs)))
+		head = s.st.Flag.Render("● LIVE") + s.st.Muted.Render(fmt.Sprintf("  following %s · %d snapshots", clean(s.source), len(s.recs)))
 	case len(s.recs) == 0:
 		s.view = placeholder(s.w, s.h, "no flight: open one from the Tail screen (enter on a flight)")
 		return
@@ -263,9 +296,9 @@ func (s *flightScreen) render() {
 		if s.speed == 0 {
 			speed = "no waiting"
 		}
-		head = s.st.Title.Render("Flight "+s.flight+" · "+s.tail) + s.st.Muted.Render(fmt.Sprintf("  replay %d/%d · %s · %s", s.pos, len(s.recs), speed, state))
+		head = s.st.Title.Render("Flight "+clean(s.flight)+" · "+clean(s.tail)) + s.st.Muted.Render(fmt.Sprintf("  replay %d/%d · %s · %s", s.pos, len(s.recs), speed, state))
 	}
-	lines := []string{truncate(head, s.w+40)}
+	lines := []string{head}
 	if s.notice != "" {
 		lines = append(lines, s.st.Muted.Render(truncate(s.notice, s.w)))
 	}
@@ -276,12 +309,18 @@ func (s *flightScreen) render() {
 		return
 	}
 	if s.live {
-		lines[0] += s.st.Muted.Render(" · " + r.Tail + " " + r.Flight)
+		lines[0] += s.st.Muted.Render(" · " + clean(r.Tail) + " " + clean(r.Flight))
 	}
+	lines[0] = truncate(lines[0], s.w)
 	sn := r.Snap
 	lines = append(lines, truncate(fmt.Sprintf("%s  %.0f ft  M%.3f  %.1f t  SAT %.1f °C (ISA %+.1f)  fuel %.0f kg/h  bank %.0f°",
 		r.Time.UTC().Format("2006-01-02 15:04Z"), sn.Altitude/model.Foot, sn.Mach, sn.Weight/1000,
-		sn.SAT-model.CelsiusZero, p.ISADev, sn.FuelFlow*model.Hour, sn.Bank*180/math.Pi), s.w), "")
+		sn.SAT-model.CelsiusZero, p.ISADev, sn.FuelFlow*model.Hour, sn.Bank*180/math.Pi), s.w))
+	if why := s.left[s.pos-1]; why != "" {
+		lines = append(lines, s.st.Muted.Render(truncate("left out of the trend: "+why, s.w)))
+	} else {
+		lines = append(lines, s.st.Muted.Render(truncate("used by the trend", s.w)))
+	}
 	lines = append(lines, s.splitBars(p)...)
 	lines = append(lines, "", s.bankLine(p))
 	if s.optOK {
@@ -289,18 +328,24 @@ func (s *flightScreen) render() {
 	}
 	chartH := s.h - len(lines) - 1
 	if chartH >= 4 {
-		lines = append(lines, s.st.Muted.Render("drag deviation over the flight so far, %"), s.deviationChart(s.w, chartH))
+		legend := s.st.Muted.Render("drag deviation over the flight so far, % · ") + s.st.Accent.Render("line: used by the trend") +
+			s.st.Muted.Render(" · dots: left out (climb, turn, speed change)")
+		lines = append(lines, truncate(legend, s.w), s.deviationChart(s.w, chartH))
 	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.Join(lines, "\n"))
 }
 
 // splitBars draws the baseline and measured drag coefficients as stacked
-// bars: induced, wave and parasite, and the excess (or the shortfall).
+// bars: induced, wave and parasite, and the excess (or the shortfall). Each
+// part has its own glyph as well as its own colour, so the parts show
+// without colour too.
 func (s *flightScreen) splitBars(p model.Point) []string {
 	width := max(10, s.w-34)
 	full := math.Max(p.CDMeasured, p.CDBaseline)
 	cells := func(v float64) int { return int(math.Round(v / full * float64(width))) }
-	bar := func(parts []float64, styles []lipgloss.Style) string {
+	glyphs := []string{glyphInduced, glyphWave, glyphParasite, glyphExcess}
+	st := []lipgloss.Style{s.st.Accent, s.st.Wave, s.st.Base, s.st.Flag}
+	bar := func(parts []float64) string {
 		var b strings.Builder
 		used := 0
 		for i, v := range parts {
@@ -309,15 +354,14 @@ func (s *flightScreen) splitBars(p model.Point) []string {
 				n = max(0, min(n, width-used))
 			}
 			used += n
-			b.WriteString(styles[i].Render(strings.Repeat("█", n)))
+			b.WriteString(st[i].Render(strings.Repeat(glyphs[i], n)))
 		}
 		return b.String() + strings.Repeat(" ", max(0, width-used))
 	}
 	parasite := math.Min(p.CDParasiteMeasured, p.CDParasiteBaseline)
 	excess := p.CDParasiteMeasured - p.CDParasiteBaseline
-	st := []lipgloss.Style{s.st.Accent, s.st.Drift, s.st.Base, s.st.Flag}
-	base := bar([]float64{p.CDInduced, p.CDWave, p.CDParasiteBaseline}, st)
-	meas := bar([]float64{p.CDInduced, p.CDWave, parasite, math.Max(0, excess)}, st)
+	base := bar([]float64{p.CDInduced, p.CDWave, p.CDParasiteBaseline})
+	meas := bar([]float64{p.CDInduced, p.CDWave, parasite, math.Max(0, excess)})
 	exStyle := s.st.Flag
 	if excess < 0 {
 		exStyle = s.st.Improve
@@ -325,9 +369,10 @@ func (s *flightScreen) splitBars(p model.Point) []string {
 	return []string{
 		fmt.Sprintf("baseline %s CD %.5f", base, p.CDBaseline),
 		fmt.Sprintf("measured %s CD %.5f", meas, p.CDMeasured),
-		truncate(s.st.Accent.Render(fmt.Sprintf("induced %.5f", p.CDInduced))+" · "+s.st.Drift.Render(fmt.Sprintf("wave %.5f", p.CDWave))+" · "+
-			s.st.Base.Render(fmt.Sprintf("parasite %.5f", p.CDParasiteBaseline))+" · "+
-			exStyle.Render(fmt.Sprintf("excess %+.1f counts (%+.2f %%)", p.ExcessCounts, p.DragDevPct)), s.w+120),
+		truncate(s.st.Accent.Render(fmt.Sprintf("%s induced %.5f", glyphInduced, p.CDInduced))+" · "+
+			s.st.Wave.Render(fmt.Sprintf("%s wave %.5f", glyphWave, p.CDWave))+" · "+
+			s.st.Base.Render(fmt.Sprintf("%s parasite %.5f", glyphParasite, p.CDParasiteBaseline))+" · "+
+			exStyle.Render(fmt.Sprintf("%s excess %+.1f counts (%+.2f %%)", glyphExcess, p.ExcessCounts, p.DragDevPct)), s.w),
 	}
 }
 
@@ -336,7 +381,7 @@ func (s *flightScreen) bankLine(p model.Point) string {
 	if math.Abs(deg) < 0.5 {
 		return s.st.Muted.Render(fmt.Sprintf("bank 0° · n %.3f · no turn penalty", p.LoadFactor))
 	}
-	return s.st.Drift.Render(fmt.Sprintf("bank %.0f° · n %.3f · induced drag %+.0f %% · total %+.1f %% · extra fuel %+.0f kg/h",
+	return s.st.Accent.Render(fmt.Sprintf("bank %.0f° · n %.3f · induced drag %+.0f %% · total %+.1f %% · extra fuel %+.0f kg/h",
 		deg, s.bank.LoadFactor, s.bank.InducedIncreasePct, s.bank.TotalIncreasePct, s.bank.ExtraFuelFlow*model.Hour))
 }
 
@@ -363,7 +408,7 @@ func (s *flightScreen) machLine(flown float64) string {
 		v float64
 		r rune
 	}{{o.Econ.Mach, 'E'}, {o.LongRange.Mach, 'L'}, {o.MaxRange.Mach, 'R'}, {flown, '●'}})
-	return truncate(fmt.Sprintf("Mach %.2f %s %.2f  ● %.3f R %.3f L %.3f E %.3f (CI %g)", lo, sc, hi, flown, o.MaxRange.Mach, o.LongRange.Mach, o.Econ.Mach, s.ci), s.w+20)
+	return truncate(fmt.Sprintf("Mach %.2f %s %.2f  ● %.3f R %.3f L %.3f E %.3f (CI %g)", lo, sc, hi, flown, o.MaxRange.Mach, o.LongRange.Mach, o.Econ.Mach, s.ci), s.w)
 }
 
 func (s *flightScreen) altLine(flown float64) string {
@@ -376,29 +421,37 @@ func (s *flightScreen) altLine(flown float64) string {
 		v float64
 		r rune
 	}{{fl(o.OptimumAltitude), 'O'}, {fl(o.MaxAltitude), 'X'}, {fl(flown), '●'}})
-	return truncate(fmt.Sprintf("FL   %3.0f %s %3.0f  ● FL%03.0f O FL%03.0f X FL%03.0f (%s) · own polar %+.1f %%",
-		lo, sc, hi, fl(flown), fl(o.OptimumAltitude), fl(o.MaxAltitude), o.MaxAltLimit, s.excessPct), s.w+20)
+	return truncate(fmt.Sprintf("FL   %3.0f %s %3.0f  ● FL%03.0f O FL%03.0f X FL%03.0f (%s) · own polar %+.1f %% (%s)",
+		lo, sc, hi, fl(flown), fl(o.OptimumAltitude), fl(o.MaxAltitude), o.MaxAltLimit, s.excessPct, s.ownFrom), s.w)
 }
 
+// deviationChart draws the flight's drag deviation so far against minutes
+// from its first snapshot: the snapshots the trend uses joined, the ones it
+// leaves out as dots of their own.
 func (s *flightScreen) deviationChart(w, h int) string {
 	if s.pos < 2 {
 		return placeholder(w, h, "one snapshot so far")
 	}
 	t0 := s.recs[0].Time
-	pts := make([][2]float64, s.pos)
+	var used, out [][2]float64
 	ys := make([]float64, s.pos)
 	for i := 0; i < s.pos; i++ {
-		pts[i] = [2]float64{s.recs[i].Time.Sub(t0).Minutes(), s.points[i].DragDevPct}
-		ys[i] = pts[i][1]
+		pt := [2]float64{s.recs[i].Time.Sub(t0).Minutes(), s.points[i].DragDevPct}
+		ys[i] = pt[1]
+		if s.left[i] == "" {
+			used = append(used, pt)
+		} else {
+			out = append(out, pt)
+		}
 	}
 	lo, hi := span(ys, 0.1, 0.5)
-	maxX := math.Max(pts[s.pos-1][0], 1)
+	maxX := math.Max(s.recs[s.pos-1].Time.Sub(t0).Minutes(), 1)
 	if !s.live {
 		maxX = math.Max(s.recs[len(s.recs)-1].Time.Sub(t0).Minutes(), 1)
 	}
 	spec := chartSpec{w: w, h: h, minX: 0, maxX: maxX, minY: lo, maxY: hi, axis: s.st.Muted,
-		xFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.0f min", v) },
+		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return fmt.Sprintf("%.0f min", v) }),
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f", v) },
-		series: []series{{points: pts, line: true, style: s.st.Accent}}}
+		series: []series{{points: used, line: true, style: s.st.Accent}, {points: out, style: s.st.Muted}}}
 	return spec.render("no data")
 }

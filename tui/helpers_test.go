@@ -12,18 +12,26 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
 
-	"dragdeck/feed"
+	"dragdeck/feed/demo"
+	"dragdeck/feed/pipeline"
 	"dragdeck/model"
 )
 
 func TestMain(m *testing.M) {
 	lipgloss.SetColorProfile(termenv.Ascii) // stable goldens, no colour codes
+	after = instant
 	os.Exit(m.Run())
+}
+
+// instant is tea.Tick without the wait: a timer's message comes at once, so
+// no test depends on the clock.
+func instant(_ time.Duration, fn func(time.Time) tea.Msg) tea.Cmd {
+	return func() tea.Msg { return fn(time.Time{}) }
 }
 
 var (
 	demoOnce sync.Once
-	demo     *Data
+	demoData *Data
 )
 
 // demoFleet is the built-in demo, made once.
@@ -34,20 +42,20 @@ func demoFleet(t testing.TB) *Data {
 		if err != nil {
 			t.Fatal(err)
 		}
-		demo = d
+		demoData = d
 	})
-	return demo
+	return demoData
 }
 
 // smallData is a demo fleet of the given size.
 func smallData(t testing.TB, tails, days int) *Data {
 	t.Helper()
-	d, err := feed.NewDemoFleet(feed.DemoConfig{Tails: tails, Days: days, Seed: 5})
+	d, err := demo.NewFleet(demo.Config{Tails: tails, Days: days, Seed: 5})
 	if err != nil {
 		t.Fatal(err)
 	}
-	ty := feed.DemoType()
-	return NewData("test", ty, feed.FleetFromRecords(d.Records, d.Stats, ty, true), nil, model.DefaultTrendConfig())
+	return NewData("test", pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Type: d.Type, Events: d.Events(),
+		Config: model.DefaultTrendConfig(), KeepRecords: true}))
 }
 
 // sized returns a dashboard on d at w × h.
@@ -85,18 +93,9 @@ func drain(m *Model, cmd tea.Cmd) {
 	}
 }
 
-// runCmd runs a command, giving up on timers after a moment (the
-// dashboard's own commands return at once).
-func runCmd(cmd tea.Cmd) tea.Msg {
-	ch := make(chan tea.Msg, 1)
-	go func() { ch <- cmd() }()
-	select {
-	case msg := <-ch:
-		return msg
-	case <-time.After(200 * time.Millisecond):
-		return nil
-	}
-}
+// runCmd runs a command. Timers return at once (instant), so no command
+// of the dashboard blocks.
+func runCmd(cmd tea.Cmd) tea.Msg { return cmd() }
 
 // checkFrame asserts that the view fits w × h.
 func checkFrame(t *testing.T, m *Model, w, h int) string {

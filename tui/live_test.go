@@ -11,6 +11,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"dragdeck/feed"
+	"dragdeck/model"
 )
 
 // The Flight screen follows a live file: the rows already there, then an
@@ -21,7 +22,7 @@ func TestFollowLive(t *testing.T) {
 	os.WriteFile(path, []byte(head+"2026-03-01T10:00:00Z,DD101,F7,65000,35000,0.78,-54,2400\n"), 0o644)
 	ctx, cancel := context.WithCancel(context.Background())
 	defer cancel()
-	m := New(ctx, nil, nil, WithLive(feed.DemoType(), path))
+	m := New(ctx, nil, nil, WithLive(feed.DemoType(), model.DefaultTrendConfig(), path, ""))
 	m.Update(tea.WindowSizeMsg{Width: 100, Height: 30})
 	pump := func(want int) {
 		t.Helper()

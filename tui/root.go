@@ -73,35 +73,50 @@ type Model struct {
 // Option sets up the dashboard.
 type Option func(*Model)
 
-// WithReplay opens the Flight screen on a replay of recs at speed.
-func WithReplay(t *model.Type, recs []feed.Record, speed float64) Option {
+// WithReplay opens the Flight screen on a replay of recs at speed. cfg says
+// which snapshots the trend leaves out. Fleet and Tail say that they need
+// a fleet.
+func WithReplay(t *model.Type, cfg model.TrendConfig, recs []feed.Record, speed float64) Option {
 	return func(m *Model) {
 		tail, flight := "", ""
 		if len(recs) > 0 {
 			tail, flight = recs[0].Tail, recs[0].Flight
 		}
 		m.active = scrFlight
-		m.start = m.flight.Replay(t, tail, flight, recs, speed)
-		m.cond = typicalCondition(t, tail, recs, math.NaN())
+		m.start = m.flight.Replay(t, cfg, tail, flight, recs, speed, math.NaN())
+		m.cond = defaultCondition(t)
+		m.noFleet("replaying one flight")
 	}
 }
 
 // WithLive opens the Flight screen following the file at path.
-func WithLive(t *model.Type, path string) Option {
+func WithLive(t *model.Type, cfg model.TrendConfig, path string, tail string) Option {
 	return func(m *Model) {
 		m.active = scrFlight
-		m.flight.Live(t, path)
+		m.flight.Live(t, cfg, path)
 		m.live = make(chan tea.Msg, 1024)
 		ch, ctx := m.live, m.ctx
 		go func() {
 			fl := &feed.Follower{Path: path, Notice: func(s string) { ch <- liveNoticeMsg{s} }}
-			err := fl.Run(ctx, func(r feed.Record) error { ch <- liveRecordMsg{r}; return nil },
-				func(e *feed.RowError) { ch <- liveRejectMsg{e} })
+			err := fl.Run(ctx, func(r feed.Record) error {
+				if tail == "" || r.Tail == tail {
+					ch <- liveRecordMsg{r}
+				}
+				return nil
+			}, func(e *feed.RowError) { ch <- liveRejectMsg{e} })
 			ch <- liveEndMsg{err}
 		}()
 		m.start = m.waitLive()
-		m.cond = typicalCondition(t, "", nil, math.NaN())
+		m.cond = defaultCondition(t)
+		m.noFleet("following a live file")
 	}
+}
+
+// noFleet tells the Fleet and Tail screens why they are empty.
+func (m *Model) noFleet(what string) {
+	msg := what + ": no fleet is loaded here (dragdeck dash FILE... shows the fleet)"
+	m.fleet.SetEmpty(msg)
+	m.tail.SetEmpty(msg)
 }
 
 // New returns the dashboard on data (nil with a loader: loaded in the
@@ -117,7 +132,7 @@ func New(ctx context.Context, data *Data, loader *Loader, opts ...Option) *Model
 	m.cruise, m.turns, m.about = newCruiseScreen(st), newTurnsScreen(st), newAboutScreen(st)
 	m.screens = [numScreens]Screen{m.fleet, m.tail, m.flight, m.cruise, m.turns, m.about}
 	m.bar = progress.New(progress.WithGradient(string(DefaultTheme.Accent.Dark), string(DefaultTheme.Improve.Dark)))
-	m.cond = Condition{Weight: 65000, Altitude: 35000 * model.Foot, Mach: 0.78, ExcessPct: math.NaN()}
+	m.cond = defaultCondition(nil)
 	for _, o := range opts {
 		o(m)
 	}
@@ -135,8 +150,9 @@ func (m *Model) setData(d *Data) {
 	m.tail.SetData(d)
 	if tail, ok := m.fleet.selected(); ok && m.active != scrFlight {
 		m.tail.SetTail(tail)
-		a, _ := d.tail(tail)
-		m.cond = typicalCondition(d.Type, tail, d.Records[tail], a.RecentPct)
+		if a, ok := d.Tail(tail); ok {
+			m.cond = tailCondition(d.Type, a)
+		}
 	}
 	m.cruise.SetCondition(d.Type, m.cond)
 	m.turns.SetCondition(d.Type, m.cond)
@@ -162,7 +178,7 @@ func (m *Model) Init() tea.Cmd {
 }
 
 func tickProgress() tea.Cmd {
-	return tea.Tick(100*time.Millisecond, func(time.Time) tea.Msg { return progressTickMsg{} })
+	return after(100*time.Millisecond, func(time.Time) tea.Msg { return progressTickMsg{} })
 }
 
 func (m *Model) waitLive() tea.Cmd {
@@ -200,7 +216,7 @@ func (m *Model) activate(i int) {
 			c := m.cond
 			c.Weight, c.Altitude, c.Mach = r.Snap.Weight, r.Snap.Altitude, r.Snap.Mach
 			c.ISADev = model.AirAt(r.Snap.Altitude, r.Snap.SAT).ISADev()
-			c.Tail, c.ExcessPct = r.Tail, m.flight.excessPct
+			c.Tail, c.ExcessPct = r.Tail, m.flight.excessPct // the tail's recent level when known
 			m.cond = c
 		}
 		m.cruise.SetCondition(t, m.cond)
@@ -237,12 +253,17 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		return m, nil
 	case openTailMsg:
 		m.tail.SetTail(msg.tail)
-		a, _ := m.data.tail(msg.tail)
-		m.cond = typicalCondition(m.data.Type, msg.tail, m.data.Records[msg.tail], a.RecentPct)
+		if a, ok := m.data.Tail(msg.tail); ok {
+			m.cond = tailCondition(m.data.Type, a)
+		}
 		m.activate(scrTail)
 		return m, nil
 	case openFlightMsg:
-		cmd := m.flight.Replay(m.data.Type, msg.tail, msg.flight, msg.recs, m.flight.speed)
+		level := math.NaN()
+		if a, ok := m.data.Tail(msg.tail); ok {
+			level = a.RecentPct
+		}
+		cmd := m.flight.Replay(m.data.Type, m.data.Config, msg.tail, msg.flight, msg.recs, m.flight.speed, level)
 		m.activate(scrFlight)
 		return m, cmd
 	case conditionMsg:
@@ -271,7 +292,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 func (m *Model) key(msg tea.KeyMsg) (tea.Model, tea.Cmd) {
 	scr := m.screens[m.active]
 	if c, ok := scr.(Capturing); ok && c.Capturing() {
-		if msg.String() == "ctrl+c" {
+		if key.Matches(msg, global.ForceQuit) {
 			return m, tea.Quit
 		}
 		_, cmd := scr.Update(msg)

@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"dragdeck/feed"
+	"dragdeck/feed/pipeline"
 	"dragdeck/model"
 )
 
@@ -83,12 +84,12 @@ func TestResizeEveryScreen(t *testing.T) {
 }
 
 func TestEmptyAndTinyFleets(t *testing.T) {
-	ty := feed.DemoType()
-	empty := NewData("empty", ty, feed.FleetFromRecords(nil, feed.Stats{}, ty, true), nil, model.DefaultTrendConfig())
+	in := pipeline.Input{Type: feed.DemoType(), Config: model.DefaultTrendConfig(), KeepRecords: true}
+	empty := NewData("empty", pipeline.FromRecords(nil, feed.Stats{}, in))
 	one := smallData(t, 1, 1)
-	single := feed.FleetFromRecords(one.Records[one.Fleet.Tails[0].Tail][:1], feed.Stats{Read: 1, Accepted: 1}, ty, true)
+	single := pipeline.FromRecords(one.Records[one.Fleet.Tails[0].Tail][:1], feed.Stats{Read: 1, Accepted: 1}, in)
 	for name, d := range map[string]*Data{"empty": empty, "one tail, one day": one,
-		"one snapshot": NewData("one", ty, single, nil, model.DefaultTrendConfig())} {
+		"one snapshot": NewData("one", single)} {
 		t.Run(name, func(t *testing.T) {
 			m := sized(d, 80, 24)
 			for i := 0; i < numScreens; i++ {

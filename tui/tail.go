@@ -36,21 +36,30 @@ var tailKeyMap = tailKeys{
 // tailScreen shows one tail: when its drag rose, why it is flagged, what it
 // costs, and its flights.
 type tailScreen struct {
-	data   *Data
-	st     Styles
-	w, h   int
-	a      model.TailAssessment
-	ok     bool
-	polar  []model.PolarPoint
-	fit    *model.PolarFit
-	cursor int // in the flights list, newest first
+	data    *Data
+	st      Styles
+	w, h    int
+	a       model.TailAssessment
+	ok      bool
+	polar   []model.PolarPoint // the current segment's usable snapshots
+	cursor  int                // in the flights list, newest first
+	listOff int                // first flight shown in the list
+	empty   string             // what the screen says without a tail
 	// the chart's time window: the last `window` days ending `back` days
 	// before the last flight
 	window, back float64
 	view         string
 }
 
-func newTailScreen(st Styles) *tailScreen { return &tailScreen{st: st} }
+func newTailScreen(st Styles) *tailScreen {
+	return &tailScreen{st: st, empty: "no tail chosen: pick one on the Fleet screen (enter)"}
+}
+
+// SetEmpty sets what the screen says while no tail is shown.
+func (s *tailScreen) SetEmpty(msg string) {
+	s.empty = msg
+	s.render()
+}
 
 func (s *tailScreen) Title() string { return "Tail" }
 
@@ -66,22 +75,18 @@ func (s *tailScreen) FullHelp() [][]key.Binding {
 
 func (s *tailScreen) SetData(d *Data) { s.data = d }
 
-// SetTail shows tail name.
+// SetTail shows tail name. Its polar points are the usable snapshots of its
+// current segment (the period its own polar is fitted over, from the
+// pipeline).
 func (s *tailScreen) SetTail(name string) {
-	s.a, s.ok = s.data.tail(name)
-	s.cursor, s.back, s.fit, s.polar = 0, 0, nil, s.polar[:0]
+	s.a, s.ok = s.data.Tail(name)
+	s.cursor, s.listOff, s.back, s.polar = 0, 0, 0, nil
 	s.window = 0
 	if s.ok && len(s.a.Flights) > 0 {
 		s.window = math.Max(1, s.a.Last.Sub(s.a.First).Hours()/24)
 	}
-	for _, r := range s.data.Records[name] {
-		p := model.Analyze(s.data.Type, r.Snap)
-		if s.data.Config.Usable(model.TrendPoint{DevPct: p.DragDevPct, Bank: r.Snap.Bank, VS: r.Snap.VS, Accel: r.Snap.Accel}) == "" {
-			s.polar = append(s.polar, model.PolarPoint{CL: p.CL, CDMeasured: p.CDMeasured, CDWave: p.CDWave})
-		}
-	}
-	if f, err := model.FitPolar(s.polar); err == nil {
-		s.fit = &f
+	if s.ok {
+		s.polar = s.data.PolarPoints(name, true)
 	}
 	s.render()
 }
@@ -124,7 +129,7 @@ func (s *tailScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		if !ok {
 			return s, nil
 		}
-		recs := s.data.flightRecords(s.a.Tail, f, s.data.Config.FlightGap)
+		recs := s.data.FlightRecords(s.a.Tail, f)
 		return s, func() tea.Msg { return openFlightMsg{tail: s.a.Tail, flight: f.Flight, recs: recs} }
 	default:
 		return s, nil
@@ -141,11 +146,11 @@ func (s *tailScreen) render() {
 		return
 	}
 	if s.data == nil || !s.ok {
-		s.view = placeholder(s.w, s.h, "no tail chosen: pick one on the Fleet screen (enter)")
+		s.view = placeholder(s.w, s.h, s.empty)
 		return
 	}
 	a := s.a
-	title := s.st.Title.Render(a.Tail)
+	title := s.st.Title.Render(clean(a.Tail))
 	if len(a.Flags) > 0 {
 		title += "  " + s.st.Flag.Render("flags: "+strings.Join(a.Flags, " "))
 	} else {
@@ -153,24 +158,37 @@ func (s *tailScreen) render() {
 	}
 	title += s.st.Muted.Render(fmt.Sprintf("  %d flights, %d snapshots, %s … %s", len(a.Flights), a.Points,
 		a.First.Format("2006-01-02"), a.Last.Format("2006-01-02")))
+	title = truncate(title, s.w)
 	if len(a.Flights) == 0 {
-		s.view = title + "\n" + placeholder(s.w, s.h-1, "no usable snapshots for this tail")
+		why := "no usable snapshots for this tail"
+		if w := a.Why(); w != "" {
+			why += ": " + w
+		}
+		s.view = title + "\n" + placeholder(s.w, s.h-1, why)
 		return
 	}
-	// rows: title 1, deviation chart, then polar | facts, then flights
-	flightRows := max(2, min(6, s.h/6))
-	rest := s.h - 1 - flightRows - 1
-	devH := max(5, rest*55/100)
-	lowH := max(4, rest-devH)
+	// Rows: the title, the deviation block (legend and chart), the polar
+	// and facts block, the flights block (header and rows); they add up to
+	// the screen's height exactly, so that nothing is cut at the bottom.
+	rows := s.listRows()
+	avail := max(2, s.h-1-(rows+1))
+	devH := avail * 55 / 100
+	lowH := avail - devH
 	dev := s.deviationChart(s.w, devH)
 	leftW := s.w * 45 / 100
 	polar := s.polarChart(leftW, lowH)
 	facts := s.facts(s.w-leftW-1, lowH)
 	low := lipgloss.JoinHorizontal(lipgloss.Top, polar, " ", facts)
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(
-		lipgloss.JoinVertical(lipgloss.Left, title, dev, low, s.flightList(flightRows+1)))
+		lipgloss.JoinVertical(lipgloss.Left, title, dev, low, s.flightList(rows)))
 }
 
+// listRows is the number of flights the list shows.
+func (s *tailScreen) listRows() int { return max(2, min(6, s.h/6)) }
+
+// deviationChart is the legend and the chart of the tail's deviation per
+// flight, h lines in all. The rolling median, the drift line and the steps
+// are the pipeline's; the x axis has a label at each month's start.
 func (s *tailScreen) deviationChart(w, h int) string {
 	a := s.a
 	end := a.Last.Add(-time.Duration(s.back * 24 * float64(time.Hour)))
@@ -178,39 +196,26 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	x := func(t time.Time) float64 { return float64(t.Unix()) / 86400 }
 	var pts, med [][2]float64
 	var ys []float64
-	devs := make([]float64, len(a.Flights))
-	for i, f := range a.Flights {
-		devs[i] = f.DevPct
-	}
-	rolling := model.RollingMedian(devs, 10)
-	for i, f := range a.Flights {
+	for _, f := range a.Flights {
 		if f.Time.Before(start) || f.Time.After(end) {
 			continue
 		}
 		pts = append(pts, [2]float64{x(f.Time), f.DevPct})
-		med = append(med, [2]float64{x(f.Time), rolling[i]})
+		med = append(med, [2]float64{x(f.Time), f.RollingPct})
 		ys = append(ys, f.DevPct)
 	}
 	lo, hi := span(ys, 0.05, 0.5)
-	spec := chartSpec{w: w, h: h, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
-		xFmt: func(_ int, v float64) string { return time.Unix(int64(v*86400), 0).UTC().Format("2006-01") },
-		yFmt: func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
-		axis: s.st.Muted,
+	spec := chartSpec{w: w, h: h - 1, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
+		xTicks: dateTicks(start, end, max(1, w/8), x),
+		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
+		axis:   s.st.Muted,
 		series: []series{
 			{points: pts, style: s.st.Muted},
 			{points: med, line: true, style: s.st.Accent},
 		}}
-	if d := a.Drift; !math.IsNaN(d.Slope) {
-		var inWin []float64
-		for _, f := range a.Flights {
-			if !f.Time.Before(a.DriftFrom) {
-				inWin = append(inWin, f.DevPct)
-			}
-		}
-		mid := model.Median(inWin)
-		days := a.DriftTo.Sub(a.DriftFrom).Hours() / 24
+	if !math.IsNaN(a.Drift.Slope) {
 		spec.series = append(spec.series, series{line: true, style: s.st.Drift, points: [][2]float64{
-			{x(a.DriftFrom), mid - d.Slope/100*days/2}, {x(a.DriftTo), mid + d.Slope/100*days/2}}})
+			{x(a.DriftFrom), a.DriftAt(a.DriftFrom)}, {x(a.DriftTo), a.DriftAt(a.DriftTo)}}})
 	}
 	for _, st := range a.Steps {
 		style := s.st.Flag
@@ -225,12 +230,15 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	legend := s.st.Muted.Render("drag deviation per flight, % · ") + s.st.Accent.Render("rolling median") + " · " +
 		s.st.Drift.Render("drift") + " · " + s.st.Flag.Render("step up") + " · " + s.st.Improve.Render("step down") + " · " +
 		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→)", s.window))
-	return lipgloss.NewStyle().MaxWidth(w).Render(legend) + "\n" + spec.render("no flights in this window")
+	return truncate(legend, w) + "\n" + spec.render("no flights in this window")
 }
 
+// polarChart is the tail's usable snapshots of its current segment as CD −
+// wave against CL², with the baseline polar and the tail's own fit over the
+// same period (from the pipeline), h lines in all.
 func (s *tailScreen) polarChart(w, h int) string {
 	if len(s.polar) == 0 {
-		return placeholder(w, h, "no points")
+		return placeholder(w, h, "no usable snapshots since "+s.a.PolarFrom.Format("2006-01-02"))
 	}
 	t := s.data.Type
 	pts := make([][2]float64, len(s.polar))
@@ -246,12 +254,12 @@ func (s *tailScreen) polarChart(w, h int) string {
 		xFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.2f", v) },
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%.4f", v) },
 		series: []series{{points: pts, style: s.st.Muted}, {points: line(t.CD0, t.K()), line: true, style: s.st.Base}}}
-	legend := s.st.Muted.Render("CD−wave vs CL²: ") + s.st.Base.Render("baseline")
-	if s.fit != nil {
-		spec.series = append(spec.series, series{points: line(s.fit.CD0, s.fit.K), line: true, style: s.st.Flag})
+	legend := s.st.Muted.Render("CD−wave vs CL² since "+s.a.PolarFrom.Format("2006-01-02")+": ") + s.st.Base.Render("baseline")
+	if s.a.PolarErr == nil {
+		spec.series = append(spec.series, series{points: line(s.a.Polar.CD0, s.a.Polar.K), line: true, style: s.st.Flag})
 		legend += " " + s.st.Flag.Render("this tail")
 	}
-	return lipgloss.NewStyle().MaxWidth(w).Render(legend) + "\n" + spec.render("no points")
+	return truncate(legend, w) + "\n" + spec.render("no points")
 }
 
 // facts are the numbers behind the flags and the cost.
@@ -294,8 +302,10 @@ func (s *tailScreen) facts(w, h int) string {
 	if c.FuelPrice > 0 {
 		add(s.st.Text, "       %s a year at %g per kg", fmtSigned(a.Money, 0), c.FuelPrice)
 	}
-	if s.fit != nil {
-		add(s.st.Muted, "polar  CD0 %.5f (%.5f) · k %.4f (%.4f)", s.fit.CD0, s.data.Type.CD0, s.fit.K, s.data.Type.K())
+	if p := a.Polar; a.PolarErr == nil {
+		add(s.st.Muted, "polar  since %s: CD0 %.5f (base %.5f) · k %.4f (%.4f)", a.PolarFrom.Format("2006-01-02"), p.CD0, s.data.Type.CD0, p.K, s.data.Type.K())
+	} else {
+		add(s.st.Muted, "polar  since %s: no fit (%v)", a.PolarFrom.Format("2006-01-02"), a.PolarErr)
 	}
 	for len(lines) < h {
 		lines = append(lines, "")
@@ -303,19 +313,26 @@ func (s *tailScreen) facts(w, h int) string {
 	return strings.Join(lines[:h], "\n")
 }
 
-func (s *tailScreen) flightList(h int) string {
-	lines := []string{s.st.Header.Render("flights, newest first (enter replays)")}
-	first := max(0, s.cursor-(h-2))
-	for i := first; i < first+h-1; i++ {
+// flightList is the header and the rows flights around the cursor; the
+// selected one starts with the selection marker and is always among them.
+func (s *tailScreen) flightList(rows int) string {
+	if s.cursor < s.listOff {
+		s.listOff = s.cursor
+	}
+	if s.cursor >= s.listOff+rows {
+		s.listOff = s.cursor - rows + 1
+	}
+	lines := []string{s.st.Header.Render(truncate("flights, newest first (enter replays)", s.w))}
+	for i := s.listOff; i < s.listOff+rows; i++ {
 		f, ok := s.flightAt(i)
 		if !ok {
 			break
 		}
-		line := fmt.Sprintf("%s  %-8s  %s %%  (%d snapshot%s)", f.Time.Format("2006-01-02 15:04"), f.Flight, fmtSigned(f.DevPct, 2), f.N, plural(f.N))
+		line := fmt.Sprintf("%s  %-8s  %s %%  (%d snapshot%s)", f.Time.Format("2006-01-02 15:04"), clean(f.Flight), fmtSigned(f.DevPct, 2), f.N, plural(f.N))
 		if i == s.cursor {
-			line = s.st.Selected.Render(truncate(line, s.w))
+			line = s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(line, s.w-markW))
 		} else {
-			line = truncate(line, s.w)
+			line = truncate(noMark+line, s.w)
 		}
 		lines = append(lines, line)
 	}

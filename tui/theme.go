@@ -5,13 +5,15 @@ import "github.com/charmbracelet/lipgloss"
 // Theme holds the dashboard's colours; each means one thing everywhere.
 type Theme struct {
 	Text    lipgloss.AdaptiveColor // ordinary text
-	Muted   lipgloss.AdaptiveColor // labels, axes, per-flight points
-	Accent  lipgloss.AdaptiveColor // titles, the selection, rolling medians
+	Muted   lipgloss.AdaptiveColor // labels, axes, per-flight points, snapshots left out
+	Accent  lipgloss.AdaptiveColor // titles, the selection, rolling medians, induced drag
 	Flag    lipgloss.AdaptiveColor // flagged tails, steps up, excess drag
-	Improve lipgloss.AdaptiveColor // improvements, steps down, margins kept
+	Improve lipgloss.AdaptiveColor // improvements, steps down
 	Drift   lipgloss.AdaptiveColor // drift lines, growth
 	Event   lipgloss.AdaptiveColor // maintenance events
 	Base    lipgloss.AdaptiveColor // baseline polar and baseline values
+	Wave    lipgloss.AdaptiveColor // wave drag
+	Limit   lipgloss.AdaptiveColor // beyond a limit: buffet margin, thrust
 }
 
 // DefaultTheme is dragdeck's own palette.
@@ -24,12 +26,14 @@ var DefaultTheme = Theme{
 	Drift:   lipgloss.AdaptiveColor{Light: "#9a5b00", Dark: "#f0a030"},
 	Event:   lipgloss.AdaptiveColor{Light: "#6f42c1", Dark: "#b392f0"},
 	Base:    lipgloss.AdaptiveColor{Light: "#57606a", Dark: "#adbac7"},
+	Wave:    lipgloss.AdaptiveColor{Light: "#1b7c83", Dark: "#39c5cf"},
+	Limit:   lipgloss.AdaptiveColor{Light: "#bf3989", Dark: "#f778ba"},
 }
 
 // Styles are every style the screens use, derived from a Theme.
 type Styles struct {
-	Title, Tab, TabActive, Header, Muted, Text, Selected lipgloss.Style
-	Flag, Improve, Drift, Event, Base, Accent, Box, Help lipgloss.Style
+	Title, Tab, TabActive, Header, Muted, Text, Selected              lipgloss.Style
+	Flag, Improve, Drift, Event, Base, Accent, Wave, Limit, Box, Help lipgloss.Style
 }
 
 // NewStyles derives the styles from t.
@@ -49,7 +53,26 @@ func NewStyles(t Theme) Styles {
 		Event:     s.Foreground(t.Event),
 		Base:      s.Foreground(t.Base),
 		Accent:    s.Foreground(t.Accent),
+		Wave:      s.Foreground(t.Wave),
+		Limit:     s.Foreground(t.Limit).Bold(true),
 		Box:       s.Border(lipgloss.RoundedBorder()).BorderForeground(t.Muted).Padding(0, 1),
 		Help:      s.Foreground(t.Muted),
 	}
 }
+
+// Selection markers: the selected row of a list starts with selMark, the
+// others with noMark, so that the selection shows without colour too.
+const (
+	selMark = "▶ "
+	noMark  = "  "
+	markW   = 2 // cells of either
+)
+
+// Glyphs of the drag split bars: each part has its own, so that the parts
+// show without colour too.
+const (
+	glyphInduced  = "█"
+	glyphWave     = "▓"
+	glyphParasite = "▒"
+	glyphExcess   = "░"
+)

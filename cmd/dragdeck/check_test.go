@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"dragdeck/feed"
+	"dragdeck/feed/demo"
 )
 
 func TestCheck(t *testing.T) {
@@ -68,7 +68,7 @@ func TestDemoCommand(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	for _, f := range []string{feed.DemoSnapshotFile, feed.DemoTypeFile, feed.DemoEventsFile, feed.DemoTruthFile} {
+	for _, f := range []string{demo.SnapshotFile, demo.TypeFile, demo.EventsFile, demo.TruthFile} {
 		if _, err := os.Stat(filepath.Join(dir, f)); err != nil {
 			t.Errorf("%s not written: %v", f, err)
 		}

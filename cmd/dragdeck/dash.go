@@ -10,6 +10,7 @@ import (
 	"github.com/muesli/termenv"
 
 	"dragdeck/feed"
+	"dragdeck/feed/pipeline"
 	"dragdeck/tui"
 )
 
@@ -71,13 +72,16 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		source = fmt.Sprintf("%s and %d more", files[0], len(files)-1)
 	}
 	load := func() (*tui.Data, error) {
-		fd := feed.LoadFleetWith(files, t, nil, feed.LoadOptions{KeepRecords: true, Progress: progress})
-		for _, r := range fd.Files {
-			if r.Err != nil {
-				return nil, r.Err
-			}
+		r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Events: evs, Config: c, KeepRecords: true, Progress: progress})
+		failed := r.Failed()
+		if len(failed) == len(files) {
+			return nil, failed[0].Err
 		}
-		return tui.NewData(source, t, fd, evs, c), nil
+		src := source
+		if len(failed) > 0 {
+			src = fmt.Sprintf("%s (%d could not be read: %v)", source, len(failed), failed[0].Err)
+		}
+		return tui.NewData(src, r), nil
 	}
 	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(files), Progress: progress, Load: load}))
 }

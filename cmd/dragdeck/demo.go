@@ -5,7 +5,7 @@ import (
 	"math"
 	"path/filepath"
 
-	"dragdeck/feed"
+	"dragdeck/feed/demo"
 )
 
 func runDemo(e *env, args []string) error {
@@ -43,7 +43,7 @@ wing area and buffet limit, speeds with its maximum-range Mach.`,
 	if err != nil {
 		return err
 	}
-	truth, err := feed.WriteDemo(*out, feed.DemoConfig{Tails: *tails, Days: *days, Seed: *seed, Type: t})
+	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t})
 	if err != nil {
 		return usageErrorf("--out: %v", err)
 	}
@@ -53,14 +53,14 @@ wing area and buffet limit, speeds with its maximum-range Mach.`,
 			flagged++
 		}
 	}
-	fmt.Fprintf(e.stdout, "wrote the demo fleet of %s to %s\n", feed.DemoAirline, *out)
+	fmt.Fprintf(e.stdout, "wrote the demo fleet of %s to %s\n", demo.Airline, *out)
 	fmt.Fprintf(e.stdout, "  %s  %d rows (%d broken on purpose), %d tails, %s … %s\n",
-		filepath.Join(*out, feed.DemoSnapshotFile), truth.Rows, truth.Rejected, len(truth.Tails), truth.Start, truth.End)
-	fmt.Fprintf(e.stdout, "  %s  %d events\n", filepath.Join(*out, feed.DemoEventsFile), len(truth.Events))
-	fmt.Fprintf(e.stdout, "  %s  %d whole-flight traces\n", filepath.Join(*out, feed.DemoTraceDir), len(truth.Traces))
+		filepath.Join(*out, demo.SnapshotFile), truth.Rows, truth.Rejected, len(truth.Tails), truth.Start, truth.End)
+	fmt.Fprintf(e.stdout, "  %s  %d events\n", filepath.Join(*out, demo.EventsFile), len(truth.Events))
+	fmt.Fprintf(e.stdout, "  %s  %d whole-flight traces\n", filepath.Join(*out, demo.TraceDir), len(truth.Traces))
 	fmt.Fprintf(e.stdout, "  %s  the truth: %d tails should be flagged (fleet median %.2f %%)\n",
-		filepath.Join(*out, feed.DemoTruthFile), flagged, math.Round(truth.FleetMedianPct*100)/100)
-	fmt.Fprintf(e.stdout, "  %s  the demo type\n", filepath.Join(*out, feed.DemoTypeFile))
+		filepath.Join(*out, demo.TruthFile), flagged, math.Round(truth.FleetMedianPct*100)/100)
+	fmt.Fprintf(e.stdout, "  %s  the demo type\n", filepath.Join(*out, demo.TypeFile))
 	fmt.Fprintln(e.stdout, "All of it is invented data.")
 	return nil
 }

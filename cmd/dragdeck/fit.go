@@ -8,6 +8,7 @@ import (
 	"time"
 
 	"dragdeck/feed"
+	"dragdeck/feed/pipeline"
 	"dragdeck/model"
 )
 
@@ -80,26 +81,25 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 	for _, tl := range tails {
 		want[tl] = true
 	}
+	// The pipeline reads and analyses the chosen snapshots; the polar
+	// points are its usable ones (model.PolarPoints), as on the Tail screen.
 	c := model.DefaultTrendConfig()
+	r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Config: c, Filter: func(r feed.Record) bool {
+		return (len(want) == 0 || want[r.Tail]) && (t0.IsZero() || !r.Time.Before(t0)) && (t1.IsZero() || !r.Time.After(t1))
+	}})
+	if failed := r.Failed(); len(failed) > 0 {
+		return usageErrorf("%v", failed[0].Err)
+	}
 	var pts []model.PolarPoint
 	seen := map[string]bool{}
 	excluded := 0
-	for _, path := range files {
-		res := feed.ReadFile(path, func(r feed.Record) {
-			if len(want) > 0 && !want[r.Tail] || !t0.IsZero() && r.Time.Before(t0) || !t1.IsZero() && r.Time.After(t1) {
-				return
-			}
-			p := model.Analyze(t, r.Snap)
-			if c.Usable(model.TrendPoint{DevPct: p.DragDevPct, Bank: r.Snap.Bank, VS: r.Snap.VS, Accel: r.Snap.Accel}) != "" {
-				excluded++
-				return
-			}
-			seen[r.Tail] = true
-			pts = append(pts, model.PolarPoint{CL: p.CL, CDMeasured: p.CDMeasured, CDWave: p.CDWave})
-		}, nil)
-		if res.Err != nil {
-			return usageErrorf("%v", res.Err)
+	for tail, tp := range r.Points {
+		usable := model.PolarPoints(tp, c, time.Time{})
+		excluded += len(tp) - len(usable)
+		if len(usable) > 0 {
+			seen[tail] = true
 		}
+		pts = append(pts, usable...)
 	}
 	for tl := range want {
 		if !seen[tl] {

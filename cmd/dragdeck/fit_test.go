@@ -11,6 +11,7 @@ import (
 	"testing"
 
 	"dragdeck/feed"
+	"dragdeck/feed/demo"
 )
 
 // fitNumbers reads "CD0 = a ± b" and "k = c ± d" from the fit's comments.
@@ -28,15 +29,15 @@ func TestFitRecoversDemoPolar(t *testing.T) {
 	if code, _, errs := runArgs("demo", "--out", dir, "--tails", "24", "--days", "365", "--seed", "12"); code != 0 {
 		t.Fatal(errs)
 	}
-	var truth feed.DemoTruth
-	js, _ := os.ReadFile(filepath.Join(dir, feed.DemoTruthFile))
+	var truth demo.Truth
+	js, _ := os.ReadFile(filepath.Join(dir, demo.TruthFile))
 	json.Unmarshal(js, &truth)
 	snaps := filepath.Join(dir, "snapshots")
 	ty := feed.DemoType()
 	var sumZ2 float64
 	n := 0
 	for _, tt := range truth.Tails {
-		if tt.Role != feed.RoleSteady {
+		if tt.Role != demo.RoleSteady {
 			continue
 		}
 		code, out, errs := runArgs("fit", "--tail", tt.Tail, snaps)

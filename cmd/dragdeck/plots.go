@@ -27,23 +27,29 @@ var (
 	colSteady  = color.RGBA{120, 140, 160, 255} // unflagged tails
 )
 
-// writePlots writes one PNG per tail and fleet.png into dir.
-func writePlots(dir string, f model.Fleet) error {
+// writePlots writes one PNG per tail with flights and, when there are
+// tails, fleet.png into dir. It returns how many it wrote.
+func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return err
+		return 0, err
 	}
+	n := 0
 	for _, a := range f.Tails {
 		if len(a.Flights) == 0 {
 			continue
 		}
-		p := tailPlot(a)
+		p := tailPlot(a, c)
 		if err := p.Save(24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, safeName(a.Tail)+".png")); err != nil {
-			return err
+			return n, err
 		}
+		n++
+	}
+	if len(f.Tails) == 0 {
+		return n, nil
 	}
 	p := fleetPlot(f)
 	h := vg.Length(6+0.45*float64(len(f.Tails))) * vg.Centimeter
-	return p.Save(20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
+	return n + 1, p.Save(20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
 }
 
 // safeName keeps a tail name usable as a file name.
@@ -59,7 +65,9 @@ func safeName(s string) string {
 
 func unix(tr model.TailTrend, i int) float64 { return float64(tr.Flights[i].Time.Unix()) }
 
-func tailPlot(a model.TailAssessment) *plot.Plot {
+// tailPlot draws what the pipeline found for one tail: its flights, their
+// rolling median, the drift line, the steps and the events.
+func tailPlot(a model.TailAssessment, c model.TrendConfig) *plot.Plot {
 	p := plot.New()
 	title := fmt.Sprintf("%s: drag deviation per flight", a.Tail)
 	if len(a.Flags) > 0 {
@@ -82,29 +90,19 @@ func tailPlot(a model.TailAssessment) *plot.Plot {
 	p.Add(sc)
 	p.Legend.Add("flights", sc)
 
-	med := model.RollingMedian(ys, 10)
 	mline := make(plotter.XYs, n)
-	for i := range med {
-		mline[i] = plotter.XY{X: pts[i].X, Y: med[i]}
+	for i, fl := range a.Flights {
+		mline[i] = plotter.XY{X: pts[i].X, Y: fl.RollingPct}
 	}
 	ml, _ := plotter.NewLine(mline)
 	ml.Color, ml.Width = colMedian, vg.Points(1.5)
 	p.Add(ml)
-	p.Legend.Add("rolling median (21 flights)", ml)
+	p.Legend.Add(fmt.Sprintf("rolling median (%d flights)", 2*c.RollingHalf+1), ml)
 
 	lo, hi := minMax(ys)
 	if !math.IsNaN(a.Drift.Slope) {
 		x0, x1 := float64(a.DriftFrom.Unix()), float64(a.DriftTo.Unix())
-		// the drift line passes through the median of its window
-		var inWin []float64
-		for i, fl := range a.Flights {
-			if !fl.Time.Before(a.DriftFrom) {
-				inWin = append(inWin, ys[i])
-			}
-		}
-		mid := model.Median(inWin)
-		days := (x1 - x0) / 86400
-		d, _ := plotter.NewLine(plotter.XYs{{X: x0, Y: mid - a.Drift.Slope/100*days/2}, {X: x1, Y: mid + a.Drift.Slope/100*days/2}})
+		d, _ := plotter.NewLine(plotter.XYs{{X: x0, Y: a.DriftAt(a.DriftFrom)}, {X: x1, Y: a.DriftAt(a.DriftTo)}})
 		d.Color, d.Width = colDrift, vg.Points(2.5)
 		p.Add(d)
 		p.Legend.Add(fmt.Sprintf("drift %+.2f pp/100 d", a.Drift.Slope), d)

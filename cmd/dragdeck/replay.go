@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"dragdeck/feed"
+	"dragdeck/model"
 	"dragdeck/tui"
 )
 
@@ -49,7 +50,7 @@ stderr.`,
 		return nil
 	}
 	if isTerminal(e.stdout) {
-		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithReplay(t, recs, *speed)))
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithReplay(t, model.DefaultTrendConfig(), recs, *speed)))
 	}
 	p := feed.NewPlayer(recs, *speed)
 	p.MaxWait = *maxWait
@@ -62,14 +63,16 @@ stderr.`,
 }
 
 func runFollow(e *env, args []string) error {
-	fs := newFlagSet("follow", "dragdeck follow [--type FILE] FILE",
+	fs := newFlagSet("follow", "dragdeck follow [--type FILE] [--tail ID] FILE",
 		`Watches a snapshot file that another system is still writing: reads the rows
 already there, then each new row as soon as its line is complete. A truncated
 file starts over, a replaced (rotated) file is reopened, a deleted file is
 waited for; each such event is noted on stderr. When stdout is not a terminal,
-each snapshot is one JSON object per line, as for replay. Stop with Ctrl-C.`,
-		"dragdeck follow /data/live/snapshots.csv")
+each snapshot is one JSON object per line, as for replay. --tail keeps one
+tail's rows. Stop with Ctrl-C.`,
+		"dragdeck follow --tail DD101 /data/live/snapshots.csv")
 	typ := fs.typeFlag()
+	tail := fs.str("tail", "ID", "", "only this tail")
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
@@ -81,11 +84,18 @@ each snapshot is one JSON object per line, as for replay. Stop with Ctrl-C.`,
 		return err
 	}
 	if isTerminal(e.stdout) {
-		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithLive(t, fs.Arg(0))))
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithLive(t, model.DefaultTrendConfig(), fs.Arg(0), *tail)))
 	}
 	sw := newSnapshotWriter(e.stdout, t)
 	fl := &feed.Follower{Path: fs.Arg(0), Notice: func(s string) { fmt.Fprintf(e.stderr, "dragdeck follow: %s\n", s) }}
-	if err := fl.Run(e.ctx, sw.write, printReject(e.stderr)); err != nil {
+	f := feed.ReplayFilter{Tail: *tail}
+	emit := func(r feed.Record) error {
+		if !f.Match(r) {
+			return nil
+		}
+		return sw.write(r)
+	}
+	if err := fl.Run(e.ctx, emit, printReject(e.stderr)); err != nil {
 		return usageErrorf("%v", err)
 	}
 	return nil

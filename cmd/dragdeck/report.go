@@ -12,10 +12,12 @@ import (
 	"time"
 
 	"dragdeck/feed"
+	"dragdeck/feed/pipeline"
 	"dragdeck/model"
 )
 
-// reportJSON is the stable JSON of a fleet report (DESIGN.md §5).
+// reportJSON is the stable JSON of a fleet report; its field names are
+// used by scripts and do not change.
 type reportJSON struct {
 	Read     int            `json:"read"`
 	Rejected int            `json:"rejected"`
@@ -44,8 +46,9 @@ type tailJSON struct {
 	DriftCI95PctPer100d []*float64     `json:"drift_ci95_pct_per_100d"`
 	Steps               []stepJSON     `json:"steps"`
 	Flags               []string       `json:"flags"`
-	ExcessFuelKgPerYear float64        `json:"excess_fuel_kg_per_year"`
-	CO2TPerYear         float64        `json:"co2_t_per_year"`
+	ExcessFuelKgPerYear *float64       `json:"excess_fuel_kg_per_year"`
+	CO2TPerYear         *float64       `json:"co2_t_per_year"`
+	NoLevel             string         `json:"no_level_reason,omitempty"` // why deviation_pct is null
 	MoneyPerYear        *float64       `json:"money_per_year,omitempty"`
 	Excluded            map[string]int `json:"excluded"`
 }
@@ -88,7 +91,7 @@ func newTailJSON(a model.TailAssessment, price float64) tailJSON {
 		First: timeOrEmpty(a.First), Last: timeOrEmpty(a.Last),
 		DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope),
 		Steps: []stepJSON{}, Flags: a.Flags,
-		ExcessFuelKgPerYear: a.ExcessFuel, CO2TPerYear: a.CO2 / 1000, Excluded: a.Excluded,
+		ExcessFuelKgPerYear: num(a.ExcessFuel), CO2TPerYear: num(a.CO2 / 1000), Excluded: a.Excluded, NoLevel: a.Why(),
 	}
 	if j.DriftPctPer100d != nil {
 		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
@@ -179,6 +182,9 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	}
 	var rejOut io.Writer
 	if *rejects != "" {
+		if err := notAnInput(*rejects, files); err != nil {
+			return err
+		}
 		f, err := os.Create(*rejects)
 		if err != nil {
 			return usageErrorf("--rejects: %v", err)
@@ -186,48 +192,77 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		defer f.Close()
 		rejOut = f
 	}
-	fd := feed.LoadFleet(files, t, func(r *feed.RowError) {
+	r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Events: evs, Config: c, Reject: func(r *feed.RowError) {
 		if rejOut != nil {
 			fmt.Fprintln(rejOut, r)
 		}
-	})
-	for _, res := range fd.Files {
-		warnUnknown(e.stderr, res)
-		if res.Events {
-			fmt.Fprintf(e.stderr, "dragdeck report: %s: an events file, skipped (give it with --events)\n", res.Path)
-		}
-		if res.Err != nil {
-			return usageErrorf("%v", res.Err)
-		}
-	}
-	fleet := model.AssessFleet(fd.Trends(evs, c), c)
+	}})
+	failed := reportFiles(e.stderr, "report", r)
 	if *plots != "" {
-		if err := writePlots(*plots, fleet); err != nil {
+		n, err := writePlots(*plots, r.Fleet, c)
+		if err != nil {
 			return usageErrorf("--plots: %v", err)
 		}
-		fmt.Fprintf(e.stderr, "dragdeck report: plots written to %s\n", *plots)
+		fmt.Fprintf(e.stderr, "dragdeck report: %d plot(s) written to %s\n", n, *plots)
 	}
 	switch *format {
 	case "json":
-		err = writeReportJSON(e.stdout, fd, fleet, c, t)
+		err = writeReportJSON(e.stdout, r)
 	case "csv":
-		err = writeReportCSV(e.stdout, fleet, c.FuelPrice)
+		err = writeReportCSV(e.stdout, r.Fleet, c.FuelPrice)
 	default:
-		writeReportTable(e.stdout, fd, fleet, t, c, len(files))
+		writeReportTable(e.stdout, r, len(files))
 	}
 	if err != nil {
 		return err
 	}
-	if *failOnFlag && fleet.Flagged > 0 {
+	if failed > 0 {
+		return &exitErr{code: exitUsage, err: fmt.Errorf("%d of %d file(s) could not be read; the report covers the others", failed, len(files))}
+	}
+	if *failOnFlag && r.Fleet.Flagged > 0 {
 		return &exitErr{code: exitFindings}
 	}
 	return nil
 }
 
-func writeReportJSON(w io.Writer, fd *feed.FleetData, f model.Fleet, c model.TrendConfig, t *model.Type) error {
-	j := reportJSON{Read: fd.Stats.Read, Rejected: fd.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
+// reportFiles tells stderr about each file the pipeline read that needs a
+// word: unknown columns, an events file among the snapshots, a file that
+// could not be read. It returns how many could not be read.
+func reportFiles(w io.Writer, cmd string, r *pipeline.Result) int {
+	failed := 0
+	for _, res := range r.Files {
+		warnUnknown(w, res)
+		switch {
+		case res.Events:
+			fmt.Fprintf(w, "dragdeck %s: %s: an events file, skipped (give it with --events)\n", cmd, res.Path)
+		case res.Err != nil:
+			failed++
+			fmt.Fprintf(w, "dragdeck %s: %v (skipped; the other files are read)\n", cmd, res.Err)
+		}
+	}
+	return failed
+}
+
+// notAnInput refuses an output path that is one of the input files, which
+// writing would destroy.
+func notAnInput(out string, inputs []string) error {
+	oi, err := os.Stat(out)
+	if err != nil {
+		return nil // does not exist yet: cannot be an input
+	}
+	for _, in := range inputs {
+		if ii, err := os.Stat(in); err == nil && os.SameFile(oi, ii) {
+			return usageErrorf("--rejects: %s is one of the input files; writing it would destroy it", out)
+		}
+	}
+	return nil
+}
+
+func writeReportJSON(w io.Writer, r *pipeline.Result) error {
+	f, c, t := r.Fleet, r.Config, r.Type
+	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
 		Fleet: fleetJSON{Tails: len(f.Tails), Flagged: f.Flagged, DeviationPctMedian: num(f.MedianRecentPct),
-			First: timeOrEmpty(fd.First), Last: timeOrEmpty(fd.Last)},
+			First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last)},
 		Settings: map[string]any{"type": t.Name, "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
 	for _, a := range f.Tails {
@@ -268,25 +303,33 @@ func writeReportCSV(w io.Writer, f model.Fleet, price float64) error {
 	return cw.Error()
 }
 
-func writeReportTable(w io.Writer, fd *feed.FleetData, f model.Fleet, t *model.Type, c model.TrendConfig, files int) {
+func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
+	f, t, c := r.Fleet, r.Type, r.Config
 	price := c.FuelPrice
 	span := "no data"
-	if !fd.First.IsZero() {
-		span = fd.First.UTC().Format(time.DateOnly) + " … " + fd.Last.UTC().Format(time.DateOnly)
+	if !r.First.IsZero() {
+		span = r.First.Format(time.DateOnly) + " … " + r.Last.Format(time.DateOnly) + " UTC"
 	}
 	fmt.Fprintf(w, "Fleet drag report: %s\n", t.Name)
-	fmt.Fprintf(w, "%d tails, %d snapshots read from %d file(s), %d rejected; %s\n", len(f.Tails), fd.Stats.Read, files, fd.Stats.Rejected, span)
+	fmt.Fprintf(w, "%d tails, %d snapshots read from %d file(s), %d rejected\nperiod %s\n", len(f.Tails), r.Stats.Read, files, r.Stats.Rejected, span)
 	if len(f.Tails) == 0 {
 		fmt.Fprintf(w, "\nNo usable snapshots: nothing to report.\n\n%s\n", caution)
 		return
 	}
 	fmt.Fprintf(w, "Fleet median recent deviation %s %%; %d tail(s) flagged.\n\n", signed(f.MedianRecentPct, 2), f.Flagged)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprint(tw, "tail\tdev %\tdrift\tlast step\tfuel t\tCO2 t\t")
+	// Two header lines: the column, then its unit.
+	fmt.Fprint(tw, "tail\tlevel\tdrift\tlast step\tfuel\tCO2\t")
 	if price > 0 {
 		fmt.Fprint(tw, "money\t")
 	}
 	fmt.Fprintln(tw, "flags")
+	fmt.Fprint(tw, "\t%\tpp/100d\tdate pp\tt/yr\tt/yr\t")
+	if price > 0 {
+		fmt.Fprint(tw, "k/yr\t")
+	}
+	fmt.Fprintln(tw)
+	var why []string
 	for _, a := range f.Tails {
 		step := "-"
 		if k := len(a.Steps); k > 0 {
@@ -299,12 +342,21 @@ func writeReportTable(w io.Writer, fd *feed.FleetData, f model.Fleet, t *model.T
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", a.Tail, signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step,
 			signed(a.ExcessFuel/1000, 0), signed(a.CO2/1000, 0))
 		if price > 0 {
-			fmt.Fprintf(tw, "%sk\t", signed(a.Money/1000, 0))
+			fmt.Fprintf(tw, "%s\t", signed(a.Money/1000, 0))
 		}
 		fmt.Fprintln(tw, flags)
+		if reason := a.Why(); reason != "" {
+			why = append(why, a.Tail+": "+reason)
+		}
 	}
 	tw.Flush()
-	fmt.Fprintf(w, "\ndev %%: median per-flight drag deviation of the last %g days. drift: pp per\n"+
+	if len(why) > 0 {
+		fmt.Fprintf(w, "\nNo recent level (shown as -):\n")
+		for _, s := range why {
+			fmt.Fprintf(w, "  %s\n", s)
+		}
+	}
+	fmt.Fprintf(w, "\nlevel: median per-flight drag deviation of the last %g days. drift: pp per\n"+
 		"100 days over the trailing %g days (Theil–Sen). last step: date and size in pp.\n"+
 		"fuel, CO2: excess per year at %g cruise hours", c.RecentDays, c.DriftDays, c.CruiseHours)
 	if price > 0 {

@@ -9,7 +9,7 @@ import (
 	"testing"
 	"time"
 
-	"dragdeck/feed"
+	"dragdeck/feed/demo"
 )
 
 type reportOut struct {
@@ -58,13 +58,13 @@ func TestReportFindsTheTruth(t *testing.T) {
 			if code, _, errs := runArgs(append([]string{"demo", "--out", dir}, tc.args...)...); code != 0 {
 				t.Fatalf("demo: %s", errs)
 			}
-			var truth feed.DemoTruth
-			js, _ := os.ReadFile(filepath.Join(dir, feed.DemoTruthFile))
+			var truth demo.Truth
+			js, _ := os.ReadFile(filepath.Join(dir, demo.TruthFile))
 			if err := json.Unmarshal(js, &truth); err != nil {
 				t.Fatal(err)
 			}
-			code, out, errs := runArgs("report", "--format", "json", "--type", filepath.Join(dir, feed.DemoTypeFile),
-				"--events", filepath.Join(dir, feed.DemoEventsFile), filepath.Join(dir, "snapshots"))
+			code, out, errs := runArgs("report", "--format", "json", "--type", filepath.Join(dir, demo.TypeFile),
+				"--events", filepath.Join(dir, demo.EventsFile), filepath.Join(dir, "snapshots"))
 			if code != 0 {
 				t.Fatalf("report: exit %d %s", code, errs)
 			}
@@ -75,7 +75,7 @@ func TestReportFindsTheTruth(t *testing.T) {
 			if rep.Read != truth.Rows || rep.Rejected != truth.Rejected || rep.Fleet.Tails != len(truth.Tails) {
 				t.Errorf("read %d rejected %d tails %d; truth %d, %d, %d", rep.Read, rep.Rejected, rep.Fleet.Tails, truth.Rows, truth.Rejected, len(truth.Tails))
 			}
-			byTail := map[string]feed.TailTruth{}
+			byTail := map[string]demo.TailTruth{}
 			flagged := 0
 			for _, tt := range truth.Tails {
 				byTail[tt.Tail] = tt
@@ -176,7 +176,7 @@ func TestReportPlots(t *testing.T) {
 	dir := t.TempDir()
 	runArgs("demo", "--out", dir, "--tails", "5", "--days", "120", "--seed", "2")
 	plots := filepath.Join(dir, "plots")
-	code, _, errs := runArgs("report", "--events", filepath.Join(dir, feed.DemoEventsFile), "--plots", plots, filepath.Join(dir, "snapshots"))
+	code, _, errs := runArgs("report", "--events", filepath.Join(dir, demo.EventsFile), "--plots", plots, filepath.Join(dir, "snapshots"))
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}

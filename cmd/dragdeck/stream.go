@@ -8,12 +8,14 @@ import (
 	"os"
 	"time"
 
+	"github.com/charmbracelet/x/term"
+
 	"dragdeck/feed"
 	"dragdeck/model"
 )
 
 // snapshotLine is one analysed snapshot as a JSON Lines object: time, tail,
-// flight and the point fields of DESIGN.md §5.
+// flight and the fields of 'point --json'.
 type snapshotLine struct {
 	Time   string `json:"time"`
 	Tail   string `json:"tail"`
@@ -50,14 +52,12 @@ func (sw *snapshotWriter) write(r feed.Record) error {
 	return err
 }
 
-// isTerminal reports whether w is a terminal (a character device).
+// isTerminal reports whether w is a terminal. A character device is not
+// enough: /dev/null is one too, and the dashboard cannot run on it. The
+// test asks the terminal driver (charmbracelet/x/term, an ioctl).
 func isTerminal(w io.Writer) bool {
 	f, ok := w.(*os.File)
-	if !ok {
-		return false
-	}
-	info, err := f.Stat()
-	return err == nil && info.Mode()&os.ModeCharDevice != 0
+	return ok && term.IsTerminal(f.Fd())
 }
 
 // printReject writes a rejected row on stderr.

@@ -1,4 +1,4 @@
-package feed
+package demo
 
 import (
 	"bytes"
@@ -9,6 +9,7 @@ import (
 	"strconv"
 	"time"
 
+	"dragdeck/feed"
 	"dragdeck/model"
 )
 
@@ -18,22 +19,27 @@ import (
 // high, plus measurement noise, so that every later analysis can be checked
 // against what was put in.
 
-// DemoAirline is the invented operator of the demo fleet.
-const DemoAirline = "Kestrel Bay Air (invented)"
+// Airline is the invented operator of the demo fleet.
+const Airline = "Kestrel Bay Air (invented)"
 
-// DemoConfig sets the size and seed of the demo fleet.
-type DemoConfig struct {
+// DefaultEnd is where the demo's data stops by default: a fixed day in the
+// past, so that the same seed gives the same fleet on any day and no
+// snapshot lies in the future.
+var DefaultEnd = time.Date(2026, 7, 1, 0, 0, 0, 0, time.UTC)
+
+// Config sets the size and seed of the demo fleet.
+type Config struct {
 	Tails int       // number of aircraft (default 24)
 	Days  int       // days of data (default 730)
 	Seed  uint64    // random seed (default 1)
-	Start time.Time // first day, UTC midnight (default 2025-01-01)
+	Start time.Time // first day, UTC midnight (default: Days before DefaultEnd)
 	// Type is the aircraft type flown (default: the demo type). Weights
 	// scale with its wing area and buffet limit, speeds with its
 	// maximum-range Mach.
 	Type *model.Type
 }
 
-func (c DemoConfig) withDefaults() DemoConfig {
+func (c Config) withDefaults() Config {
 	if c.Tails <= 0 {
 		c.Tails = 24
 	}
@@ -44,10 +50,10 @@ func (c DemoConfig) withDefaults() DemoConfig {
 		c.Seed = 1
 	}
 	if c.Start.IsZero() {
-		c.Start = time.Date(2025, 1, 1, 0, 0, 0, 0, time.UTC)
+		c.Start = DefaultEnd.AddDate(0, 0, -c.Days)
 	}
 	if c.Type == nil {
-		c.Type = DemoType()
+		c.Type = feed.DemoType()
 	}
 	return c
 }
@@ -70,8 +76,8 @@ const (
 	RoleManoeuvres = "manoeuvres"
 )
 
-// DemoTruth is what the generator put into the demo fleet (truth.json).
-type DemoTruth struct {
+// Truth is what the generator put into the demo fleet (truth.json).
+type Truth struct {
 	Generator      string       `json:"generator"`
 	Airline        string       `json:"airline"`
 	Type           string       `json:"type"`
@@ -88,7 +94,7 @@ type DemoTruth struct {
 	Tails          []TailTruth  `json:"tails"`
 	BrokenRows     []BrokenRow  `json:"broken_rows"`
 	Traces         []TraceTruth `json:"traces"`
-	Events         []DemoEvent  `json:"events"`
+	Events         []Event      `json:"events"`
 	Note           string       `json:"note"`
 }
 
@@ -138,8 +144,8 @@ type TraceTruth struct {
 	Rows   int    `json:"rows"`
 }
 
-// DemoEvent is one line of the events file (DESIGN.md §3.3).
-type DemoEvent struct {
+// Event is one line of the events file (DESIGN.md §3.3).
+type Event struct {
 	Time string `json:"time"`
 	Tail string `json:"tail"`
 	Kind string `json:"kind"`
@@ -162,7 +168,7 @@ func (tt *TailTruth) deviation(t time.Time) float64 {
 
 // demoGen holds the state of one generation.
 type demoGen struct {
-	cfg   DemoConfig
+	cfg   Config
 	ty    *model.Type
 	rng   *rand.Rand
 	tails []TailTruth
@@ -177,7 +183,7 @@ type demoGen struct {
 // CL of 0.85, kg/m² (65 t on 112 m²).
 const wingLoading = 580.0
 
-func newDemoGen(cfg DemoConfig) *demoGen {
+func newDemoGen(cfg Config) *demoGen {
 	cfg = cfg.withDefaults()
 	g := &demoGen{cfg: cfg, ty: cfg.Type, rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
 		end: cfg.Start.AddDate(0, 0, cfg.Days), optAlt: map[int]float64{}}
@@ -317,7 +323,7 @@ func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, 
 	cl := model.LiftCoefficient(n, w, q, g.ty.WingArea)
 	cd := g.ty.CD(cl, m, 0) * (1 + tt.deviation(t)/100)
 	tas := air.TAS(m)
-	thrust := cd*q*g.ty.WingArea + w*model.G0*MPerSFromFtPerMin(vsFpm)/tas + w*MPerS2FromKtPerMin(acc)
+	thrust := cd*q*g.ty.WingArea + w*model.G0*feed.MPerSFromFtPerMin(vsFpm)/tas + w*feed.MPerS2FromKtPerMin(acc)
 	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + noise)
 	return demoRow{t: t, tail: tt.Tail, flight: flight, w: w, altFt: altFt, mach: m,
 		satC: tISA + dev - model.CelsiusZero, ffKgph: ff * model.Hour, bankDeg: bankDeg, vsFpm: vsFpm, accelKtPerMin: acc}

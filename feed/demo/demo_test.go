@@ -1,4 +1,4 @@
-package feed
+package demo
 
 import (
 	"bytes"
@@ -8,26 +8,27 @@ import (
 	"testing"
 	"time"
 
+	"dragdeck/feed"
 	"dragdeck/model"
 )
 
-var smallDemo = DemoConfig{Tails: 12, Days: 240, Seed: 7}
+var smallDemo = Config{Tails: 12, Days: 240, Seed: 7}
 
 func TestDemoIsDeterministic(t *testing.T) {
 	a, b, c := t.TempDir(), t.TempDir(), t.TempDir()
-	if _, err := WriteDemo(a, smallDemo); err != nil {
+	if _, err := Write(a, smallDemo); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := WriteDemo(b, smallDemo); err != nil {
+	if _, err := Write(b, smallDemo); err != nil {
 		t.Fatal(err)
 	}
 	other := smallDemo
 	other.Seed = 8
-	if _, err := WriteDemo(c, other); err != nil {
+	if _, err := Write(c, other); err != nil {
 		t.Fatal(err)
 	}
 	files, _ := filepath.Glob(filepath.Join(a, "*"))
-	traces, _ := filepath.Glob(filepath.Join(a, DemoTraceDir, "*.csv"))
+	traces, _ := filepath.Glob(filepath.Join(a, TraceDir, "*.csv"))
 	if len(traces) != 3 {
 		t.Errorf("%d traces, want 3", len(traces))
 	}
@@ -42,8 +43,8 @@ func TestDemoIsDeterministic(t *testing.T) {
 			t.Errorf("%s differs between two runs with the same seed", rel)
 		}
 	}
-	x, _ := os.ReadFile(filepath.Join(a, DemoSnapshotFile))
-	z, _ := os.ReadFile(filepath.Join(c, DemoSnapshotFile))
+	x, _ := os.ReadFile(filepath.Join(a, SnapshotFile))
+	z, _ := os.ReadFile(filepath.Join(c, SnapshotFile))
 	if bytes.Equal(x, z) {
 		t.Error("another seed gave the same snapshots")
 	}
@@ -53,17 +54,17 @@ func TestDemoIsDeterministic(t *testing.T) {
 // broken rows it lists, on their lines and columns, and accepts the rest.
 func TestDemoTruthMatchesFile(t *testing.T) {
 	dir := t.TempDir()
-	truth, err := WriteDemo(dir, smallDemo)
+	truth, err := Write(dir, smallDemo)
 	if err != nil {
 		t.Fatal(err)
 	}
-	var onDisk DemoTruth
-	js, _ := os.ReadFile(filepath.Join(dir, DemoTruthFile))
+	var onDisk Truth
+	js, _ := os.ReadFile(filepath.Join(dir, TruthFile))
 	if err := json.Unmarshal(js, &onDisk); err != nil || onDisk.Rows != truth.Rows || len(onDisk.Tails) != smallDemo.Tails {
 		t.Fatalf("truth.json: %v, %+v", err, onDisk.Rows)
 	}
-	var rejects []*RowError
-	res := ReadFile(filepath.Join(dir, DemoSnapshotFile), nil, func(r *RowError) { rejects = append(rejects, r) })
+	var rejects []*feed.RowError
+	res := feed.ReadFile(filepath.Join(dir, SnapshotFile), nil, func(r *feed.RowError) { rejects = append(rejects, r) })
 	if res.Err != nil {
 		t.Fatal(res.Err)
 	}
@@ -79,10 +80,10 @@ func TestDemoTruthMatchesFile(t *testing.T) {
 			t.Errorf("reject %v, truth says line %d column %s (%s)", r, b.Line, b.Column, b.Defect)
 		}
 	}
-	if _, err := LoadType(filepath.Join(dir, DemoTypeFile)); err != nil {
+	if _, err := feed.LoadType(filepath.Join(dir, TypeFile)); err != nil {
 		t.Errorf("type file: %v", err)
 	}
-	ev, _ := os.ReadFile(filepath.Join(dir, DemoEventsFile))
+	ev, _ := os.ReadFile(filepath.Join(dir, EventsFile))
 	if !bytes.Contains(ev, []byte(",repair,")) {
 		t.Errorf("events file has no repair:\n%s", ev)
 	}
@@ -93,14 +94,14 @@ func TestDemoTruthMatchesFile(t *testing.T) {
 // last 30 days within 0.3 pp, noise included), also for the tail whose
 // snapshots hold turns, climbs and accelerations.
 func TestDemoRecoversTruth(t *testing.T) {
-	d, err := NewDemoFleet(smallDemo)
+	d, err := NewFleet(smallDemo)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if d.Stats.Rejected != d.Truth.Rejected || len(d.Records) != d.Truth.Accepted {
 		t.Fatalf("in-memory fleet: %+v vs truth %d/%d", d.Stats, d.Truth.Accepted, d.Truth.Rejected)
 	}
-	ty := DemoType()
+	ty := feed.DemoType()
 	end, _ := time.Parse(time.DateOnly, d.Truth.End)
 	recent := map[string][]float64{}
 	manoeuvring := 0
@@ -139,15 +140,15 @@ func TestDemoRecoversTruth(t *testing.T) {
 
 func TestDemoTraces(t *testing.T) {
 	dir := t.TempDir()
-	truth, err := WriteDemo(dir, smallDemo)
+	truth, err := Write(dir, smallDemo)
 	if err != nil {
 		t.Fatal(err)
 	}
-	ty := DemoType()
+	ty := feed.DemoType()
 	for _, tr := range truth.Traces {
 		var devs []float64
 		climbing, turning := false, false
-		res := ReadFile(filepath.Join(dir, tr.File), func(r Record) {
+		res := feed.ReadFile(filepath.Join(dir, tr.File), func(r feed.Record) {
 			devs = append(devs, model.Analyze(ty, r.Snap).DragDevPct)
 			climbing = climbing || r.Snap.VS > 0
 			turning = turning || r.Snap.Bank != 0
@@ -174,8 +175,8 @@ func TestDemoTraces(t *testing.T) {
 }
 
 func TestDemoTinyFleets(t *testing.T) {
-	for _, cfg := range []DemoConfig{{Tails: 1, Days: 1}, {Tails: 3, Days: 5}, {Tails: 6, Days: 30, Seed: 3}} {
-		d, err := NewDemoFleet(cfg)
+	for _, cfg := range []Config{{Tails: 1, Days: 1}, {Tails: 3, Days: 5}, {Tails: 6, Days: 30, Seed: 3}} {
+		d, err := NewFleet(cfg)
 		if err != nil {
 			t.Fatalf("%+v: %v", cfg, err)
 		}
@@ -187,8 +188,20 @@ func TestDemoTinyFleets(t *testing.T) {
 
 func BenchmarkDemoFleet(b *testing.B) {
 	for i := 0; i < b.N; i++ {
-		if _, err := NewDemoFleet(DemoConfig{}); err != nil {
+		if _, err := NewFleet(Config{}); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// The demo ends on a fixed day in the past, whatever its length, so that no
+// snapshot lies in the future and the same seed gives the same fleet on any
+// day.
+func TestDemoEndsInThePast(t *testing.T) {
+	for _, days := range []int{40, 730} {
+		g := newDemoGen(Config{Tails: 3, Days: days, Seed: 2})
+		if !g.end.Equal(DefaultEnd) {
+			t.Errorf("%d days end %v, want %v", days, g.end, DefaultEnd)
 		}
 	}
 }

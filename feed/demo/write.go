@@ -1,4 +1,4 @@
-package feed
+package demo
 
 import (
 	"bufio"
@@ -12,23 +12,24 @@ import (
 	"sort"
 	"time"
 
+	"dragdeck/feed"
 	"dragdeck/model"
 )
 
-// Names of the files WriteDemo writes inside its folder.
+// Names of the files Write writes inside its folder.
 const (
-	DemoSnapshotFile = "snapshots/fleet.csv"
-	DemoTypeFile     = "type.toml"
-	DemoEventsFile   = "events.csv"
-	DemoTruthFile    = "truth.json"
-	DemoTraceDir     = "traces"
+	SnapshotFile = "snapshots/fleet.csv"
+	TypeFile     = "type.toml"
+	EventsFile   = "events.csv"
+	TruthFile    = "truth.json"
+	TraceDir     = "traces"
 )
 
 // writeSnapshots writes the fleet's snapshot CSV to w, with broken rows
 // inserted among the good ones, and fills in the truth's counts.
-func (g *demoGen) writeSnapshots(w io.Writer, truth *DemoTruth) error {
+func (g *demoGen) writeSnapshots(w io.Writer, truth *Truth) error {
 	bw := bufio.NewWriterSize(w, 256<<10)
-	fmt.Fprintf(bw, "# dragdeck demo fleet of %s, type %s\n", DemoAirline, g.ty.Name)
+	fmt.Fprintf(bw, "# dragdeck demo fleet of %s, type %s\n", Airline, g.ty.Name)
 	fmt.Fprintf(bw, "# invented data made by 'dragdeck demo' (seed %d); not flight data of any real aircraft\n", g.cfg.Seed)
 	bw.WriteString(snapshotHeader)
 	line := 3
@@ -48,7 +49,7 @@ func (g *demoGen) writeSnapshots(w io.Writer, truth *DemoTruth) error {
 				bw.Write(k.spoil(append([]byte(nil), buf...)))
 				line++
 				broken++
-				truth.BrokenRows = append(truth.BrokenRows, BrokenRow{File: DemoSnapshotFile, Line: line, Column: k.column, Defect: k.defect})
+				truth.BrokenRows = append(truth.BrokenRows, BrokenRow{File: SnapshotFile, Line: line, Column: k.column, Defect: k.defect})
 			}
 		}
 	})
@@ -58,26 +59,26 @@ func (g *demoGen) writeSnapshots(w io.Writer, truth *DemoTruth) error {
 
 // events returns the maintenance events of the demo fleet: each repair, and
 // some washes that change nothing.
-func (g *demoGen) events() []DemoEvent {
-	var ev []DemoEvent
+func (g *demoGen) events() []Event {
+	var ev []Event
 	for i := range g.tails {
 		tt := &g.tails[i]
 		for _, s := range tt.Steps {
 			if s.Cause == "repair" {
-				ev = append(ev, DemoEvent{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
+				ev = append(ev, Event{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
 					Kind: "repair", Note: "door seal replaced, spoiler rigging checked"})
 			}
 		}
 		if tt.Role == RoleSteady && i%4 == 0 {
 			at := g.day(0.5 + 0.1*float64(i%3)).Add(-4 * time.Hour)
-			ev = append(ev, DemoEvent{Time: at.Format(time.RFC3339), Tail: tt.Tail, Kind: "wash", Note: "exterior wash"})
+			ev = append(ev, Event{Time: at.Format(time.RFC3339), Tail: tt.Tail, Kind: "wash", Note: "exterior wash"})
 		}
 	}
 	sort.SliceStable(ev, func(a, b int) bool { return ev[a].Time < ev[b].Time })
 	return ev
 }
 
-func writeEvents(w io.Writer, ev []DemoEvent) error {
+func writeEvents(w io.Writer, ev []Event) error {
 	bw := bufio.NewWriter(w)
 	bw.WriteString("# maintenance events of the invented demo fleet\ntime,tail,kind,note\n")
 	for _, e := range ev {
@@ -143,16 +144,16 @@ func writeTrace(path string, rows []demoRow) error {
 }
 
 // newTruth starts the truth record of a generation.
-func (g *demoGen) newTruth() DemoTruth {
-	return DemoTruth{
+func (g *demoGen) newTruth() Truth {
+	return Truth{
 		Generator:      "dragdeck demo",
-		Airline:        DemoAirline,
+		Airline:        Airline,
 		Type:           g.ty.Name,
 		Seed:           g.cfg.Seed,
 		Days:           g.cfg.Days,
 		Start:          g.cfg.Start.Format(time.DateOnly),
 		End:            g.end.Format(time.DateOnly),
-		SnapshotFile:   DemoSnapshotFile,
+		SnapshotFile:   SnapshotFile,
 		Thresholds:     truthLimits{LevelPP: truthLevelPP, GrowthPPin180: truthGrowthPP, StepPP: truthStepPP},
 		FleetMedianPct: g.fleetMedian(),
 		Tails:          g.tails,
@@ -163,18 +164,18 @@ func (g *demoGen) newTruth() DemoTruth {
 	}
 }
 
-// WriteDemo writes the demo fleet into dir (created if needed): the snapshot
+// Write writes the demo fleet into dir (created if needed): the snapshot
 // CSV, the type file, the events file, per-minute traces of a few flights
 // and truth.json. The same config gives the same bytes.
-func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
+func Write(dir string, cfg Config) (Truth, error) {
 	g := newDemoGen(cfg)
 	truth := g.newTruth()
-	for _, sub := range []string{DemoTraceDir, filepath.Dir(DemoSnapshotFile)} {
+	for _, sub := range []string{TraceDir, filepath.Dir(SnapshotFile)} {
 		if err := os.MkdirAll(filepath.Join(dir, sub), 0o755); err != nil {
 			return truth, err
 		}
 	}
-	f, err := os.Create(filepath.Join(dir, DemoSnapshotFile))
+	f, err := os.Create(filepath.Join(dir, SnapshotFile))
 	if err != nil {
 		return truth, err
 	}
@@ -185,28 +186,28 @@ func WriteDemo(dir string, cfg DemoConfig) (DemoTruth, error) {
 	if err := f.Close(); err != nil {
 		return truth, err
 	}
-	if err := os.WriteFile(filepath.Join(dir, DemoTypeFile), FormatType(g.ty), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, TypeFile), feed.FormatType(g.ty), 0o644); err != nil {
 		return truth, err
 	}
 	truth.Events = g.events()
 	var ev bytes.Buffer
 	writeEvents(&ev, truth.Events)
-	if err := os.WriteFile(filepath.Join(dir, DemoEventsFile), ev.Bytes(), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, EventsFile), ev.Bytes(), 0o644); err != nil {
 		return truth, err
 	}
 	for _, tr := range g.traceTails() {
 		rows := g.trace(tr.tt, tr.flight, tr.dep)
 		name := fmt.Sprintf("%s-%s-%s.csv", tr.tt.Tail, tr.flight, tr.dep.Format("20060102"))
-		if err := writeTrace(filepath.Join(dir, DemoTraceDir, name), rows); err != nil {
+		if err := writeTrace(filepath.Join(dir, TraceDir, name), rows); err != nil {
 			return truth, err
 		}
-		truth.Traces = append(truth.Traces, TraceTruth{File: DemoTraceDir + "/" + name, Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
+		truth.Traces = append(truth.Traces, TraceTruth{File: TraceDir + "/" + name, Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
 	}
 	js, err := json.MarshalIndent(truth, "", "  ")
 	if err != nil {
 		return truth, err
 	}
-	return truth, os.WriteFile(filepath.Join(dir, DemoTruthFile), append(js, '\n'), 0o644)
+	return truth, os.WriteFile(filepath.Join(dir, TruthFile), append(js, '\n'), 0o644)
 }
 
 type traceChoice struct {
@@ -231,34 +232,48 @@ func (g *demoGen) traceTails() []traceChoice {
 	return out
 }
 
-// DemoFleet is the demo fleet in memory, as the dashboard shows it.
-type DemoFleet struct {
-	Records []Record
-	Rejects []*RowError
-	Stats   Stats
-	Truth   DemoTruth
+// Fleet is the demo fleet in memory, as the dashboard shows it.
+type Fleet struct {
+	Type    *model.Type // the type flown
+	Records []feed.Record
+	Rejects []*feed.RowError
+	Stats   feed.Stats
+	Truth   Truth
 }
 
-// NewDemoFleet makes the demo fleet in memory: the same snapshot bytes that
-// WriteDemo writes, read back through the CSV reader so that the rejects are
+// Events returns the truth's events by tail, as an events file gives them.
+func (d *Fleet) Events() map[string][]model.Event {
+	out := map[string][]model.Event{}
+	for _, e := range d.Truth.Events {
+		at, err := time.Parse(time.RFC3339, e.Time)
+		if err != nil {
+			continue // written by this package in RFC 3339; cannot happen
+		}
+		out[e.Tail] = append(out[e.Tail], model.Event{Time: at.UTC(), Kind: e.Kind, Note: e.Note})
+	}
+	return out
+}
+
+// NewFleet makes the demo fleet in memory: the same snapshot bytes that
+// Write writes, read back through the CSV reader so that the rejects are
 // the same too.
-func NewDemoFleet(cfg DemoConfig) (*DemoFleet, error) {
+func NewFleet(cfg Config) (*Fleet, error) {
 	g := newDemoGen(cfg)
-	d := &DemoFleet{Truth: g.newTruth()}
+	d := &Fleet{Type: g.ty, Truth: g.newTruth()}
 	var buf bytes.Buffer
 	if err := g.writeSnapshots(&buf, &d.Truth); err != nil {
 		return nil, err
 	}
 	d.Truth.Events = g.events()
-	r := NewReader(&buf, "demo:"+DemoSnapshotFile)
-	d.Records = make([]Record, 0, d.Truth.Accepted)
+	r := feed.NewReader(&buf, "demo:"+SnapshotFile)
+	d.Records = make([]feed.Record, 0, d.Truth.Accepted)
 	for {
 		rec, err := r.Next()
 		if err == nil {
 			d.Records = append(d.Records, rec)
 			continue
 		}
-		if re, ok := err.(*RowError); ok {
+		if re, ok := err.(*feed.RowError); ok {
 			d.Rejects = append(d.Rejects, re)
 			continue
 		}

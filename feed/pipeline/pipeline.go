@@ -1,0 +1,239 @@
+// Package pipeline is dragdeck's one fleet pipeline: read → analyse →
+// trends → flags → cost. Snapshot files are read by package feed, every
+// accepted snapshot is analysed against its type's baseline polar
+// (model.Analyze), the points are grouped by tail, each tail's trend is
+// computed (model.AnalyzeTrend) and the fleet is flagged and priced
+// (model.AssessFleet). `report`, the dashboard and every other output call
+// Run and present its Result; none of them computes physics or statistics
+// of its own.
+package pipeline
+
+import (
+	"runtime"
+	"sort"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+// Input is what the pipeline reads and how it judges it.
+type Input struct {
+	Paths  []string                 // snapshot files
+	Type   *model.Type              // the baseline of every snapshot
+	Events map[string][]model.Event // by tail (may be nil)
+	Config model.TrendConfig
+
+	KeepRecords bool                     // keep every accepted record, by tail, for replay
+	Progress    *atomic.Int64            // bytes read so far, for a progress bar (may be nil)
+	Reject      func(*feed.RowError)     // every rejected row, one at a time (may be nil)
+	Filter      func(r feed.Record) bool // keep only the records it accepts (nil: all)
+}
+
+// Result is the pipeline's answer: the fleet assessed, and what it was made of.
+type Result struct {
+	Type   *model.Type
+	Config model.TrendConfig
+	Fleet  model.Fleet                   // every tail, most severe first
+	Points map[string][]model.TrendPoint // analysed snapshots by tail, in time order
+	// Records are the accepted records by tail in time order, when
+	// Input.KeepRecords is set.
+	Records     map[string][]feed.Record
+	Files       []feed.FileResult // one per path, in order
+	Stats       feed.Stats        // rows of all files
+	First, Last time.Time         // span of the accepted snapshots (zero if none)
+}
+
+// Failed returns the files that could not be read (missing, no header, a
+// required column missing). Events files found among the paths are not
+// failures.
+func (r *Result) Failed() []feed.FileResult {
+	var out []feed.FileResult
+	for _, f := range r.Files {
+		if f.Err != nil {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// Tail returns the assessment of one tail.
+func (r *Result) Tail(name string) (model.TailAssessment, bool) {
+	for _, a := range r.Fleet.Tails {
+		if a.Tail == name {
+			return a, true
+		}
+	}
+	return model.TailAssessment{}, false
+}
+
+// FlightRecords returns the records of flight f of the tail, in time order:
+// from the flight's first snapshot while the flight name holds and no gap
+// exceeds the configured flight gap. Nil when records were not kept.
+func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
+	recs := r.Records[tail]
+	i := sort.Search(len(recs), func(i int) bool { return !recs[i].Time.Before(f.Time) })
+	var out []feed.Record
+	for ; i < len(recs); i++ {
+		rec := recs[i]
+		if rec.Flight != f.Flight || (len(out) > 0 && rec.Time.Sub(out[len(out)-1].Time).Hours() > r.Config.FlightGap) {
+			break
+		}
+		out = append(out, rec)
+	}
+	return out
+}
+
+// PolarPoints returns the tail's usable snapshots as polar-fit points, from
+// its current segment on (the period of its own polar) or all of them.
+func (r *Result) PolarPoints(tail string, currentSegment bool) []model.PolarPoint {
+	var from time.Time
+	if a, ok := r.Tail(tail); ok && currentSegment {
+		from = a.PolarFrom
+	}
+	return model.PolarPoints(r.Points[tail], r.Config, from)
+}
+
+// batchSize is how many records travel together from reader to analyser.
+const batchSize = 4096
+
+// Run reads in.Paths and assesses the fleet. Files are read concurrently and
+// analysed as they are parsed, so that one large file uses two cores. A file
+// that cannot be read is in Result.Files with its error; the others are
+// read all the same.
+func Run(in Input) *Result {
+	r := newResult(in, len(in.Paths))
+	batches := make(chan []feed.Record, 8)
+	free := make(chan []feed.Record, 16) // batches to reuse
+	getBatch := func() []feed.Record {
+		select {
+		case b := <-free:
+			return b[:0]
+		default:
+			return make([]feed.Record, 0, batchSize)
+		}
+	}
+	var rejMu sync.Mutex
+	onReject := func(e *feed.RowError) {
+		if in.Reject != nil {
+			rejMu.Lock()
+			in.Reject(e)
+			rejMu.Unlock()
+		}
+	}
+	jobs := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < max(1, min(runtime.GOMAXPROCS(0), len(in.Paths))); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				batch := getBatch()
+				r.Files[i] = feed.ReadFileProgress(in.Paths[i], in.Progress, func(rec feed.Record) {
+					batch = append(batch, rec)
+					if len(batch) == batchSize {
+						batches <- batch
+						batch = getBatch()
+					}
+				}, onReject)
+				batches <- batch
+			}
+		}()
+	}
+	go func() {
+		for i := range in.Paths {
+			jobs <- i
+		}
+		close(jobs)
+		wg.Wait()
+		close(batches)
+	}()
+	for batch := range batches {
+		for _, rec := range batch {
+			r.add(in, rec)
+		}
+		select {
+		case free <- batch:
+		default:
+		}
+	}
+	for _, f := range r.Files {
+		r.Stats.Add(f.Stats)
+	}
+	r.assess(in)
+	return r
+}
+
+// FromRecords runs the pipeline on records already read (the built-in
+// demo); st counts their rows.
+func FromRecords(recs []feed.Record, st feed.Stats, in Input) *Result {
+	r := newResult(in, 0)
+	r.Stats = st
+	for _, rec := range recs {
+		r.add(in, rec)
+	}
+	r.assess(in)
+	return r
+}
+
+func newResult(in Input, files int) *Result {
+	r := &Result{Type: in.Type, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
+	if in.KeepRecords {
+		r.Records = map[string][]feed.Record{}
+	}
+	return r
+}
+
+// add analyses one record and files its point under its tail.
+func (r *Result) add(in Input, rec feed.Record) {
+	if in.Filter != nil && !in.Filter(rec) {
+		return
+	}
+	p := model.Analyze(in.Type, rec.Snap)
+	r.Points[rec.Tail] = append(r.Points[rec.Tail], model.NewTrendPoint(rec.Time, rec.Flight, rec.Snap, p))
+	if r.Records != nil {
+		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
+	}
+	if r.First.IsZero() || rec.Time.Before(r.First) {
+		r.First = rec.Time
+	}
+	if rec.Time.After(r.Last) {
+		r.Last = rec.Time
+	}
+}
+
+// assess sorts each tail's points and records by time and computes the
+// trends (tails in parallel), the flags and the cost.
+func (r *Result) assess(in Input) {
+	tails := make([]string, 0, len(r.Points))
+	for tail := range r.Points {
+		tails = append(tails, tail)
+	}
+	sort.Strings(tails)
+	trends := make([]model.TailTrend, len(tails))
+	jobs := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				tail := tails[i]
+				pts := r.Points[tail]
+				sort.SliceStable(pts, func(a, b int) bool { return pts[a].Time.Before(pts[b].Time) })
+				if recs := r.Records[tail]; recs != nil {
+					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
+				}
+				trends[i] = model.AnalyzeTrend(tail, pts, in.Events[tail], in.Config)
+			}
+		}()
+	}
+	for i := range tails {
+		jobs <- i
+	}
+	close(jobs)
+	wg.Wait()
+	r.Fleet = model.AssessFleet(trends, in.Config)
+}

@@ -1,0 +1,136 @@
+package pipeline
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+
+	"dragdeck/feed"
+	"dragdeck/feed/demo"
+	"dragdeck/model"
+)
+
+func input(paths ...string) Input {
+	return Input{Paths: paths, Type: feed.DemoType(), Config: model.DefaultTrendConfig()}
+}
+
+// Run gives every accepted row to its tail, whatever the number of files,
+// counts every row and assesses every tail.
+func TestRun(t *testing.T) {
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, demo.Config{Tails: 6, Days: 60, Seed: 3}); err != nil {
+		t.Fatal(err)
+	}
+	one := Run(input(filepath.Join(dir, demo.SnapshotFile)))
+	traces, _ := filepath.Glob(filepath.Join(dir, demo.TraceDir, "*.csv"))
+	var rejected int
+	in := input(append([]string{filepath.Join(dir, demo.SnapshotFile)}, traces...)...)
+	in.Reject = func(*feed.RowError) { rejected++ }
+	many := Run(in)
+	total := 0
+	for _, p := range one.Points {
+		total += len(p)
+	}
+	if total != one.Stats.Accepted || one.Stats.Read != one.Stats.Accepted+one.Stats.Rejected || len(one.Points) != 6 {
+		t.Errorf("one file: %d points, stats %+v, %d tails", total, one.Stats, len(one.Points))
+	}
+	if many.Stats.Accepted <= one.Stats.Accepted || rejected != many.Stats.Rejected {
+		t.Errorf("with traces: %+v, %d rejects seen", many.Stats, rejected)
+	}
+	if len(one.Fleet.Tails) != 6 {
+		t.Errorf("%d tails assessed, want 6", len(one.Fleet.Tails))
+	}
+	for tail, pts := range one.Points {
+		for i := 1; i < len(pts); i++ {
+			if pts[i].Time.Before(pts[i-1].Time) {
+				t.Fatalf("%s: points not in time order at %d", tail, i)
+			}
+		}
+	}
+}
+
+// A file that cannot be read is named in the result and the others are read
+// all the same.
+func TestRunBrokenFile(t *testing.T) {
+	dir := t.TempDir()
+	good := filepath.Join(dir, "good.csv")
+	bad := filepath.Join(dir, "bad.csv")
+	os.WriteFile(good, []byte("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n2026-03-01T10:22:00Z,DD101,65000,35000,0.78,-54.3,2380\n"), 0o644)
+	os.WriteFile(bad, nil, 0o644)
+	r := Run(input(bad, good))
+	if f := r.Failed(); len(f) != 1 || f[0].Path != bad {
+		t.Errorf("failed %+v, want only %s", f, bad)
+	}
+	if r.Stats.Accepted != 1 || len(r.Fleet.Tails) != 1 {
+		t.Errorf("the good file was not read: %+v", r.Stats)
+	}
+}
+
+// FromRecords on the in-memory demo gives the same assessment as Run on the
+// same snapshots written to a file, and keeps records for replay.
+func TestFromRecordsMatchesRun(t *testing.T) {
+	cfg := demo.Config{Tails: 5, Days: 120, Seed: 4}
+	d, err := demo.NewFleet(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, cfg); err != nil {
+		t.Fatal(err)
+	}
+	in := input()
+	in.KeepRecords = true
+	mem := FromRecords(d.Records, d.Stats, in)
+	file := Run(input(filepath.Join(dir, demo.SnapshotFile)))
+	for i, a := range mem.Fleet.Tails {
+		b := file.Fleet.Tails[i]
+		if a.Tail != b.Tail || a.RecentPct != b.RecentPct || a.Points != b.Points {
+			t.Errorf("tail %d: memory %s %g (%d), file %s %g (%d)", i, a.Tail, a.RecentPct, a.Points, b.Tail, b.RecentPct, b.Points)
+		}
+	}
+	a := mem.Fleet.Tails[0]
+	recs := mem.FlightRecords(a.Tail, a.Flights[len(a.Flights)-1])
+	if len(recs) == 0 || recs[0].Flight != a.Flights[len(a.Flights)-1].Flight {
+		t.Errorf("flight records %v", recs)
+	}
+	if pp := mem.PolarPoints(a.Tail, true); len(pp) == 0 || len(pp) > a.Points {
+		t.Errorf("%d polar points of %d usable", len(pp), a.Points)
+	}
+}
+
+// The filter keeps only what it accepts (fit's tails and dates).
+func TestRunFilter(t *testing.T) {
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, demo.Config{Tails: 4, Days: 60, Seed: 3}); err != nil {
+		t.Fatal(err)
+	}
+	in := input(filepath.Join(dir, demo.SnapshotFile))
+	cut := demo.DefaultEnd.AddDate(0, 0, -30)
+	in.Filter = func(r feed.Record) bool { return r.Tail == "DD101" && r.Time.After(cut) }
+	r := Run(in)
+	if len(r.Points) != 1 || r.First.Before(cut) {
+		t.Errorf("%d tails, first %v", len(r.Points), r.First)
+	}
+}
+
+func benchFleetFile(b *testing.B) string {
+	b.Helper()
+	dir := b.TempDir()
+	if _, err := demo.Write(dir, demo.Config{Tails: 100, Days: 730, Seed: 1}); err != nil {
+		b.Fatal(err)
+	}
+	return filepath.Join(dir, demo.SnapshotFile)
+}
+
+// BenchmarkRun reads, analyses and assesses about 280,000 snapshots.
+func BenchmarkRun(b *testing.B) {
+	path := benchFleetFile(b)
+	fi, _ := os.Stat(path)
+	b.SetBytes(fi.Size())
+	b.ResetTimer()
+	var rows int
+	for i := 0; i < b.N; i++ {
+		rows += Run(input(path)).Stats.Read
+	}
+	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
+}
