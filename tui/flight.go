@@ -3,6 +3,7 @@ package tui
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"time"
 
@@ -450,7 +451,7 @@ func (s *flightScreen) deviationChart(w, h int) string {
 		maxX = math.Max(s.recs[len(s.recs)-1].Time.Sub(t0).Minutes(), 1)
 	}
 	spec := chartSpec{w: w, h: h, minX: 0, maxX: maxX, minY: lo, maxY: hi, axis: s.st.Muted,
-		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return fmt.Sprintf("%.0f min", v) }),
+		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) + " min" }),
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f", v) },
 		series: []series{{points: used, line: true, style: s.st.Accent}, {points: out, style: s.st.Muted}}}
 	return spec.render("no data")

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -56,5 +57,22 @@ func TestMonthTicks(t *testing.T) {
 	long := monthTicks(time.Date(2024, 7, 1, 0, 0, 0, 0, time.UTC), time.Date(2026, 6, 30, 0, 0, 0, 0, time.UTC), 8, x)
 	if len(long) > 8 || long[0].label != "Jul" {
 		t.Errorf("two years: %+v", long)
+	}
+}
+
+// Minute ticks of a short flight are at distinct round values.
+func TestMinuteTicksDistinct(t *testing.T) {
+	for _, span := range []float64{0.7, 2.6, 9, 47, 610} {
+		ticks := niceTicks(0, span, 8, func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) })
+		seen := map[string]bool{}
+		for _, k := range ticks {
+			if seen[k.label] {
+				t.Errorf("span %g: label %q twice in %+v", span, k.label, ticks)
+			}
+			seen[k.label] = true
+		}
+		if len(ticks) < 2 {
+			t.Errorf("span %g: %d ticks", span, len(ticks))
+		}
 	}
 }

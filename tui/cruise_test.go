@@ -1,0 +1,68 @@
+package tui
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestCruiseKeys(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	press(m, "enter")
+	m.activate(scrCruise)
+	c := m.cruise.c
+	press(m, "up", "]", "I")
+	if m.cruise.c.Altitude <= c.Altitude || m.cruise.c.CostIndex != c.CostIndex+5 || m.cruise.c.ISADev != c.ISADev+5 {
+		t.Errorf("cruise keys: %+v → %+v", c, m.cruise.c)
+	}
+	if m.cruise.tail.MaxRange.SR >= m.cruise.base.MaxRange.SR {
+		t.Error("a flagged tail's own polar should have less range than the baseline")
+	}
+	if v := m.View(); !strings.Contains(v, "max range M") || !strings.Contains(v, "level") {
+		t.Errorf("cruise view:\n%s", v)
+	}
+}
+
+// The Cruise screen's own polar is the tail's recent level from the
+// pipeline, not the deviation of the flight last replayed.
+func TestCruiseOwnPolarIsTheTailsLevel(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	press(m, "enter")
+	a := m.tail.a
+	press(m, "enter", "G") // replay a flight whose own median differs
+	m.activate(scrCruise)
+	if got := m.cruise.c.ExcessPct; got != a.RecentPct {
+		t.Errorf("own polar at %+.3f %%, the tail's recent level is %+.3f %%", got, a.RecentPct)
+	}
+	if !strings.Contains(m.View(), "recent level") {
+		t.Errorf("the own polar's source is not named:\n%s", m.View())
+	}
+}
+
+// The help lists both keys of every pair, each with its own text.
+func TestCruiseAndTurnsHelpBothHalves(t *testing.T) {
+	for name, s := range map[string]Screen{"cruise": newCruiseScreen(NewStyles(DefaultTheme)), "turns": newTurnsScreen(NewStyles(DefaultTheme))} {
+		seen := map[string]string{}
+		for _, col := range s.FullHelp() {
+			for _, b := range col {
+				h := b.Help()
+				if prev, dup := seen[h.Desc]; dup {
+					t.Errorf("%s: %q and %q share the text %q", name, prev, h.Key, h.Desc)
+				}
+				seen[h.Desc] = h.Key
+				if strings.Contains(h.Key, "/") && !strings.Contains(h.Key, "↑/") && !strings.Contains(h.Key, "↓/") {
+					t.Errorf("%s: %q names two keys in one entry", name, h.Key)
+				}
+			}
+		}
+		want := map[string][]string{"cruise": {"+", "-", "]", "[", "I", "i"}, "turns": {"+", "-"}}[name]
+		for _, k := range want {
+			found := false
+			for _, key := range seen {
+				found = found || key == k
+			}
+			if !found {
+				t.Errorf("%s: help lacks the %q key", name, k)
+			}
+		}
+	}
+}

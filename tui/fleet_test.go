@@ -1,0 +1,164 @@
+package tui
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"github.com/charmbracelet/lipgloss"
+)
+
+func TestFleetFilter(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	press(m, "/")
+	if !m.fleet.Capturing() {
+		t.Fatal("/ should start the filter")
+	}
+	press(m, "s", "t", "e", "p", "q") // q is typed, not quit
+	if m.fleet.filter.Value() != "stepq" {
+		t.Fatalf("filter %q", m.fleet.filter.Value())
+	}
+	press(m, "esc")
+	press(m, "/", "s", "t", "e", "p", "enter")
+	for _, a := range m.fleet.rows {
+		if !strings.Contains(strings.Join(a.Flags, " "), "step") {
+			t.Errorf("filter 'step' kept %s %v", a.Tail, a.Flags)
+		}
+	}
+	if len(m.fleet.rows) == 0 {
+		t.Fatal("no step tails in the demo")
+	}
+	press(m, "esc")
+	if len(m.fleet.rows) != len(m.data.Fleet.Tails) {
+		t.Errorf("esc should clear the filter: %d rows", len(m.fleet.rows))
+	}
+	press(m, "down", "down", "up")
+	if m.fleet.cursor != 1 {
+		t.Errorf("cursor %d after down down up", m.fleet.cursor)
+	}
+}
+
+// lineWith returns the first line of v that contains s.
+func lineWith(v, s string) (string, bool) {
+	for _, l := range strings.Split(v, "\n") {
+		if strings.Contains(l, s) {
+			return l, true
+		}
+	}
+	return "", false
+}
+
+// Without colour (the tests' ASCII profile is what NO_COLOR gives), the
+// selected row still shows: it starts with the selection marker, and only
+// it does.
+func TestFleetSelectionWithoutColour(t *testing.T) {
+	m := sized(demoFleet(t), 80, 24)
+	press(m, "down", "down")
+	want, _ := m.fleet.selected()
+	v := m.View()
+	if n := strings.Count(v, selMark); n != 1 {
+		t.Fatalf("%d selection markers:\n%s", n, v)
+	}
+	l, _ := lineWith(v, selMark)
+	if !strings.HasPrefix(l, selMark+want) {
+		t.Errorf("marked row %q, selected %s", l, want)
+	}
+	press(m, "enter")
+	if m.tail.a.Tail != want {
+		t.Errorf("enter opened %s, the marked row is %s", m.tail.a.Tail, want)
+	}
+}
+
+// The column header fits 80 and 100 columns whole, with the units and
+// periods of its columns.
+func TestFleetHeaderUnits(t *testing.T) {
+	for _, w := range []int{80, 100} {
+		m := sized(demoFleet(t), w, 24)
+		v := checkFrame(t, m, w, 24)
+		h1, ok1 := lineWith(v, "last step")
+		h2, ok2 := lineWith(v, "pp/100d")
+		if !ok1 || !ok2 {
+			t.Fatalf("%d columns: no two-line header:\n%s", w, v)
+		}
+		for _, s := range []string{"tail", "level", "drift", "fuel", "flags"} {
+			if !strings.Contains(h1, s) {
+				t.Errorf("%d columns: header %q lacks %q", w, h1, s)
+			}
+		}
+		for _, s := range []string{"% 30d", "pp/100d", "t/yr"} {
+			if !strings.Contains(h2, s) {
+				t.Errorf("%d columns: units %q lack %q", w, h2, s)
+			}
+		}
+		if strings.Contains(h1, "…") || strings.Contains(h2, "…") {
+			t.Errorf("%d columns: header cut: %q / %q", w, h1, h2)
+		}
+	}
+}
+
+// s cycles the order; Home and End go to the first and last rows.
+func TestFleetSortHomeEnd(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	rows := func() []string {
+		var out []string
+		for _, a := range m.fleet.rows {
+			out = append(out, a.Tail)
+		}
+		return out
+	}
+	press(m, "s") // by tail
+	if got := rows(); !sortedStrings(got) {
+		t.Errorf("by tail: %v", got)
+	}
+	press(m, "s") // by deviation, largest first, NaN last
+	prev := math.Inf(1)
+	for _, a := range m.fleet.rows {
+		if !math.IsNaN(a.RecentPct) && a.RecentPct > prev {
+			t.Fatalf("by deviation: %s %+.2f after %+.2f", a.Tail, a.RecentPct, prev)
+		}
+		if !math.IsNaN(a.RecentPct) {
+			prev = a.RecentPct
+		}
+	}
+	if !strings.Contains(m.View(), "by deviation") {
+		t.Error("the order is not named on screen")
+	}
+	press(m, "end")
+	if m.fleet.cursor != len(m.fleet.rows)-1 {
+		t.Errorf("end: cursor %d of %d", m.fleet.cursor, len(m.fleet.rows))
+	}
+	press(m, "home")
+	if m.fleet.cursor != 0 {
+		t.Errorf("home: cursor %d", m.fleet.cursor)
+	}
+	press(m, "s", "s", "s") // back to severity
+	if got, want := rows()[0], m.data.Fleet.Tails[0].Tail; got != want {
+		t.Errorf("severity order starts with %s, want %s", got, want)
+	}
+}
+
+func sortedStrings(s []string) bool {
+	for i := 1; i < len(s); i++ {
+		if s[i] < s[i-1] {
+			return false
+		}
+	}
+	return true
+}
+
+// A tail name from the data cannot drive the terminal.
+func TestFleetCleansNames(t *testing.T) {
+	d := smallData(t, 2, 20)
+	d.Fleet.Tails[0].Tail = "EV\x1b[2J\x07IL"
+	m := sized(d, 100, 30)
+	v := m.View()
+	if strings.ContainsAny(v, "\x1b\x07") {
+		t.Errorf("control characters reached the screen: %q", v)
+	}
+	if !strings.Contains(v, "EV[2JIL") {
+		t.Errorf("cleaned name missing:\n%s", v)
+	}
+	if w := lipgloss.Width(v); w > 100 {
+		t.Errorf("width %d", w)
+	}
+}

@@ -1,0 +1,91 @@
+package tui
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestTailZoom(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	press(m, "enter")
+	full := m.tail.window
+	press(m, "+", "+")
+	if m.tail.window != full/4 {
+		t.Errorf("zoom in twice: %g days of %g", m.tail.window, full)
+	}
+	press(m, "h")
+	if m.tail.back <= 0 {
+		t.Error("h should move the window earlier")
+	}
+	press(m, "-", "-", "-")
+	if m.tail.window != full {
+		t.Errorf("zoom out: %g, want %g", m.tail.window, full)
+	}
+	press(m, "down", "down")
+	if m.tail.cursor != 2 {
+		t.Errorf("flight cursor %d", m.tail.cursor)
+	}
+}
+
+// However far the cursor goes down the flights list, the selected flight is
+// on screen (marked), and enter replays that one.
+func TestTailFlightsCursorVisible(t *testing.T) {
+	for _, size := range [][2]int{{80, 24}, {100, 30}, {120, 50}} {
+		m := sized(demoFleet(t), size[0], size[1])
+		press(m, "enter")
+		for i := 0; i < 12; i++ {
+			press(m, "down")
+			v := checkFrame(t, m, size[0], size[1])
+			f, _ := m.tail.flightAt(m.tail.cursor)
+			l, ok := lineWith(v, selMark)
+			if !ok || !strings.Contains(l, f.Time.Format("2006-01-02 15:04")) {
+				t.Fatalf("%v, %d downs: selected flight %s not marked on screen:\n%s", size, i+1, f.Time, v)
+			}
+		}
+		f, _ := m.tail.flightAt(m.tail.cursor)
+		press(m, "enter")
+		if m.flight.flight != f.Flight || !m.flight.recs[0].Time.Equal(f.Time) {
+			t.Errorf("%v: enter replayed %s at %s, the marked flight is %s at %s", size, m.flight.flight, m.flight.recs[0].Time, f.Flight, f.Time)
+		}
+	}
+}
+
+// The polar points and the tail's own line cover the current segment only
+// (since the last step or event), and the screen names that period.
+func TestTailPolarCurrentSegment(t *testing.T) {
+	d := demoFleet(t)
+	var name string
+	for _, a := range d.Fleet.Tails {
+		if len(a.Steps) > 0 {
+			name = a.Tail
+			break
+		}
+	}
+	if name == "" {
+		t.Fatal("no tail with a step in the demo")
+	}
+	m := sized(d, 120, 40)
+	m.Update(openTailMsg{name})
+	a := m.tail.a
+	if !a.PolarFrom.After(a.First) {
+		t.Fatalf("%s: polar from %s, first %s: the segment should start at the step", name, a.PolarFrom, a.First)
+	}
+	all := d.PolarPoints(name, false)
+	if n := len(m.tail.polar); n == 0 || n >= len(all) {
+		t.Errorf("%s: %d polar points of %d: want only the current segment's", name, n, len(all))
+	}
+	if v := m.View(); !strings.Contains(v, "since "+a.PolarFrom.Format("2006-01-02")) {
+		t.Errorf("the polar's period is not named:\n%s", v)
+	}
+}
+
+// The deviation chart's x labels are month names at the month starts (with
+// the year at January), not evenly spaced dates.
+func TestTailMonthAxis(t *testing.T) {
+	m := sized(demoFleet(t), 100, 30)
+	press(m, "enter")
+	v := m.View()
+	if !strings.Contains(v, "Sep") || !strings.Contains(v, "2026") || strings.Contains(v, "2025-0") {
+		t.Errorf("month axis:\n%s", v)
+	}
+}
