@@ -5,16 +5,19 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"regexp"
 	"strings"
+	"time"
 
 	"dragdeck/feed"
 	"dragdeck/model"
 )
 
-// flagSet is a flag.FlagSet with dragdeck's help and error conventions:
-// --help prints a teaching usage to stdout and exits 0; a bad flag is one
-// line on stderr and exit 2.
+// flagSet declares flags in a flag.FlagSet (the registry: names, values,
+// defaults, help) and parses them itself, with dragdeck's conventions:
+// --name value or --name=value (one dash works too), flags and PATHs in any
+// order, "--" ends the flags; --help prints a teaching usage to stdout and
+// exits 0; a bad flag is one line on stderr naming it, and exit 2. Errors
+// are made here from the flag's kind, not from the flag package's text.
 type flagSet struct {
 	*flag.FlagSet
 	usage    string // "dragdeck point --type T ..."
@@ -22,6 +25,7 @@ type flagSet struct {
 	example  string
 	required []string
 	argNames map[string]string // flag name → placeholder in help
+	args     []string          // the positional arguments, in order
 }
 
 func newFlagSet(name, usage, about, example string) *flagSet {
@@ -60,27 +64,88 @@ func (f *flagSet) jsonFlag() *bool {
 var errHelp = errors.New("help shown")
 
 // parse parses args, prints help on --help, and checks required flags and
-// that no positional arguments are left.
+// that no positional arguments are left (errPositional if some are).
 func (f *flagSet) parse(args []string, stdout io.Writer) error {
-	if err := f.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
+	f.args = f.args[:0]
+	for i := 0; i < len(args); i++ {
+		a := args[i]
+		if a == "--" {
+			f.args = append(f.args, args[i+1:]...)
+			break
+		}
+		if len(a) < 2 || a[0] != '-' {
+			f.args = append(f.args, a)
+			continue
+		}
+		name, value, hasValue := strings.Cut(strings.TrimPrefix(a[1:], "-"), "=")
+		if name == "help" || name == "h" {
 			f.printHelp(stdout)
 			return errHelp
 		}
-		return usageErrorf("%s (see 'dragdeck %s --help')", dashed(err.Error()), f.Name())
+		fl := f.Lookup(name)
+		if fl == nil {
+			return usageErrorf("flag provided but not defined: --%s (see 'dragdeck %s --help')", name, f.Name())
+		}
+		if b, ok := fl.Value.(interface{ IsBoolFlag() bool }); ok && b.IsBoolFlag() && !hasValue {
+			value, hasValue = "true", true
+		}
+		if !hasValue {
+			if i+1 >= len(args) {
+				return usageErrorf("--%s: needs a value (see 'dragdeck %s --help')", name, f.Name())
+			}
+			i++
+			value = args[i]
+		}
+		if err := f.Set(name, value); err != nil {
+			if kind := kindOf(fl); kind != "" {
+				return usageErrorf("--%s: %q is %s (see 'dragdeck %s --help')", name, value, kind, f.Name())
+			}
+			return usageErrorf("--%s: %v (see 'dragdeck %s --help')", name, err, f.Name())
+		}
 	}
-	set := map[string]bool{}
-	f.Visit(func(fl *flag.Flag) { set[fl.Name] = true })
 	for _, r := range f.required {
-		if !set[r] {
+		if !f.isSet(r) {
 			return usageErrorf("--%s: missing (required; see 'dragdeck %s --help')", r, f.Name())
 		}
 	}
-	if f.NArg() > 0 {
+	if len(f.args) > 0 {
 		return errPositional
 	}
 	return nil
 }
+
+// kindOf says what a flag's value is not, for an error message; "" for a
+// flag of dragdeck's own type, whose error says it.
+func kindOf(fl *flag.Flag) string {
+	g, ok := fl.Value.(flag.Getter)
+	if !ok {
+		return ""
+	}
+	switch g.Get().(type) {
+	case float64:
+		return "not a number"
+	case int, int64, uint, uint64:
+		return "not a whole number"
+	case bool:
+		return "not true or false"
+	case time.Duration:
+		return "not a duration (like 5s, 2m or 1h30m)"
+	}
+	return ""
+}
+
+// NArg, Arg and Args are the positional arguments, wherever they stood
+// among the flags.
+func (f *flagSet) NArg() int { return len(f.args) }
+
+func (f *flagSet) Arg(i int) string {
+	if i < 0 || i >= len(f.args) {
+		return ""
+	}
+	return f.args[i]
+}
+
+func (f *flagSet) Args() []string { return f.args }
 
 // errPositional is returned by parse when arguments follow the flags;
 // commands that take PATH arguments accept it, others report it.
@@ -92,25 +157,6 @@ func (f *flagSet) noArgs(err error) error {
 		return usageErrorf("unexpected argument %q (see 'dragdeck %s --help')", f.Arg(0), f.Name())
 	}
 	return err
-}
-
-// flagMsg matches the flag package's bad-value message.
-var flagMsg = regexp.MustCompile(`^invalid (boolean )?value "(.*)" for (?:flag )?-([\w-]+): (.*)$`)
-
-// dashed rewrites the flag package's messages to name flags as "--name":
-// `invalid value "abc" for flag -mach: parse error` → `--mach: "abc" is not a number`.
-func dashed(msg string) string {
-	if m := flagMsg.FindStringSubmatch(msg); m != nil {
-		reason := m[4]
-		if reason == "parse error" {
-			reason = "not a number"
-			if m[1] != "" {
-				reason = "not true or false"
-			}
-		}
-		return fmt.Sprintf("--%s: %q is %s", m[3], m[2], reason)
-	}
-	return strings.Replace(msg, ": -", ": --", 1)
 }
 
 func (f *flagSet) printHelp(w io.Writer) {
