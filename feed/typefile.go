@@ -1,18 +1,17 @@
 package feed
 
 import (
-	"bufio"
 	"bytes"
 	_ "embed"
 	"errors"
 	"fmt"
 	"math"
 	"os"
-	"regexp"
 	"strconv"
 	"strings"
 
-	"github.com/BurntSushi/toml"
+	"github.com/pelletier/go-toml/v2"
+	"github.com/pelletier/go-toml/v2/unstable"
 
 	"dragdeck/model"
 )
@@ -50,69 +49,79 @@ func LoadType(path string) (*model.Type, error) {
 	return ParseType(path, data)
 }
 
-// typeFile mirrors the TOML layout of DESIGN.md §3.2, in the file's units.
+// typeFile mirrors the TOML layout of a type file, in the file's units.
+// Every key is a pointer, so that a missing key is told from a zero.
 type typeFile struct {
-	Name string `toml:"name"`
+	Name *string `toml:"name"`
 	Wing struct {
-		AreaM2 float64 `toml:"area_m2"`
-		SpanM  float64 `toml:"span_m"`
+		AreaM2 *float64 `toml:"area_m2"`
+		SpanM  *float64 `toml:"span_m"`
 	} `toml:"wing"`
 	Polar struct {
-		CD0    float64 `toml:"cd0"`
-		Oswald float64 `toml:"oswald"`
+		CD0    *float64 `toml:"cd0"`
+		Oswald *float64 `toml:"oswald"`
 	} `toml:"polar"`
 	Wave struct {
-		KappaA         float64 `toml:"kappa_a"`
-		ThicknessRatio float64 `toml:"thickness_ratio"`
-		SweepDeg       float64 `toml:"sweep_deg"`
+		KappaA         *float64 `toml:"kappa_a"`
+		ThicknessRatio *float64 `toml:"thickness_ratio"`
+		SweepDeg       *float64 `toml:"sweep_deg"`
 	} `toml:"wave"`
 	Engine struct {
-		Count             int     `toml:"count"`
-		TSFCAPerH         float64 `toml:"tsfc_a_per_h"`
-		TSFCBPerH         float64 `toml:"tsfc_b_per_h"`
-		MaxThrustPerDelta float64 `toml:"max_cruise_thrust_per_delta_n"`
+		Count             *int     `toml:"count"`
+		TSFCAPerH         *float64 `toml:"tsfc_a_per_h"`
+		TSFCBPerH         *float64 `toml:"tsfc_b_per_h"`
+		MaxThrustPerDelta *float64 `toml:"max_cruise_thrust_per_delta_n"`
 	} `toml:"engine"`
 	Limits struct {
-		MMO      float64 `toml:"mmo"`
-		MaxAltFt float64 `toml:"max_alt_ft"`
-		CLBuffet float64 `toml:"cl_buffet"`
+		MMO      *float64 `toml:"mmo"`
+		MaxAltFt *float64 `toml:"max_alt_ft"`
+		CLBuffet *float64 `toml:"cl_buffet"`
 	} `toml:"limits"`
 }
 
-// requiredTypeKeys lists every key a type file must have.
-var requiredTypeKeys = []string{
-	"name",
-	"wing.area_m2", "wing.span_m",
-	"polar.cd0", "polar.oswald",
-	"wave.kappa_a", "wave.thickness_ratio", "wave.sweep_deg",
-	"engine.count", "engine.tsfc_a_per_h", "engine.tsfc_b_per_h",
-	"limits.mmo", "limits.max_alt_ft", "limits.cl_buffet",
+// typeKeyKinds is what each key of a type file holds, for the error when a
+// value cannot be decoded into it.
+var typeKeyKinds = map[string]string{
+	"name": "a string", "engine.count": "a whole number",
+	"wing.area_m2": "a number", "wing.span_m": "a number", "polar.cd0": "a number", "polar.oswald": "a number",
+	"wave.kappa_a": "a number", "wave.thickness_ratio": "a number", "wave.sweep_deg": "a number",
+	"engine.tsfc_a_per_h": "a number", "engine.tsfc_b_per_h": "a number", "engine.max_cruise_thrust_per_delta_n": "a number",
+	"limits.mmo": "a number", "limits.max_alt_ft": "a number", "limits.cl_buffet": "a number",
 }
-
-// decodeErr matches the TOML decoder's type errors, which carry the line and
-// key only in their text: `toml: line 31 (last key "limits.mmo"): reason`.
-var decodeErr = regexp.MustCompile(`^toml: (?:line (\d+) )?\(last key "([^"]*)"\): (.*)$`)
 
 // ParseType decodes and validates a type file; name is used in errors.
 // Errors read "name:line: key: reason" (line omitted where unknown).
+//
+// The TOML decoder is pelletier/go-toml/v2 in strict mode: a syntax or type
+// error is a *toml.DecodeError with its line and key, an unknown key a
+// *toml.StrictMissingError listing each with its line; the lines of the
+// values that fail validation come from the same library's parser.
 func ParseType(name string, data []byte) (*model.Type, error) {
 	var f typeFile
-	md, err := toml.Decode(string(data), &f)
-	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			key := ""
-			if pe.LastKey != "" {
-				key = " " + pe.LastKey + ":"
+	dec := toml.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&f); err != nil {
+		var sm *toml.StrictMissingError
+		if errors.As(err, &sm) && len(sm.Errors) > 0 {
+			var msgs []string
+			for i := range sm.Errors {
+				e := &sm.Errors[i]
+				row, _ := e.Position()
+				msgs = append(msgs, fmt.Sprintf("%s:%d: %s: unknown key", name, row, strings.Join(e.Key(), ".")))
 			}
-			return nil, fmt.Errorf("%s:%d:%s %s", name, pe.Position.Line, key, pe.Message)
+			return nil, errors.New(strings.Join(msgs, "; "))
 		}
-		if m := decodeErr.FindStringSubmatch(err.Error()); m != nil {
-			line := ""
-			if m[1] != "" {
-				line = ":" + m[1]
+		var de *toml.DecodeError
+		if errors.As(err, &de) {
+			row, _ := de.Position()
+			key := strings.Join(de.Key(), ".")
+			if kind, ok := typeKeyKinds[key]; ok {
+				return nil, fmt.Errorf("%s:%d: %s: must be %s", name, row, key, kind)
 			}
-			return nil, fmt.Errorf("%s%s: %s: %s", name, line, m[2], strings.Replace(m[3], "destination has type", "want", 1))
+			if key != "" {
+				key = " " + key + ":"
+			}
+			return nil, fmt.Errorf("%s:%d:%s %s", name, row, key, strings.TrimPrefix(de.Error(), "toml: "))
 		}
 		return nil, fmt.Errorf("%s: %w", name, err)
 	}
@@ -123,34 +132,48 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 		}
 		return name
 	}
-	for _, k := range md.Undecoded() {
-		return nil, fmt.Errorf("%s: %s: unknown key", at(k.String()), k)
+	required := []struct {
+		key string
+		set bool
+	}{
+		{"name", f.Name != nil},
+		{"wing.area_m2", f.Wing.AreaM2 != nil}, {"wing.span_m", f.Wing.SpanM != nil},
+		{"polar.cd0", f.Polar.CD0 != nil}, {"polar.oswald", f.Polar.Oswald != nil},
+		{"wave.kappa_a", f.Wave.KappaA != nil}, {"wave.thickness_ratio", f.Wave.ThicknessRatio != nil}, {"wave.sweep_deg", f.Wave.SweepDeg != nil},
+		{"engine.count", f.Engine.Count != nil}, {"engine.tsfc_a_per_h", f.Engine.TSFCAPerH != nil}, {"engine.tsfc_b_per_h", f.Engine.TSFCBPerH != nil},
+		{"limits.mmo", f.Limits.MMO != nil}, {"limits.max_alt_ft", f.Limits.MaxAltFt != nil}, {"limits.cl_buffet", f.Limits.CLBuffet != nil},
 	}
-	for _, k := range requiredTypeKeys {
-		if !md.IsDefined(strings.Split(k, ".")...) {
-			return nil, fmt.Errorf("%s: %s: missing (required)", name, k)
+	var missing []string
+	for _, r := range required {
+		if !r.set {
+			missing = append(missing, r.key)
 		}
 	}
-	t := &model.Type{
-		Name:              f.Name,
-		WingArea:          f.Wing.AreaM2,
-		Span:              f.Wing.SpanM,
-		CD0:               f.Polar.CD0,
-		Oswald:            f.Polar.Oswald,
-		KappaA:            f.Wave.KappaA,
-		ThicknessRatio:    f.Wave.ThicknessRatio,
-		Sweep:             f.Wave.SweepDeg * math.Pi / 180,
-		EngineCount:       f.Engine.Count,
-		TSFCA:             model.TSFCPerHour(f.Engine.TSFCAPerH),
-		TSFCB:             model.TSFCPerHour(f.Engine.TSFCBPerH),
-		MaxThrustPerDelta: f.Engine.MaxThrustPerDelta,
-		MMO:               f.Limits.MMO,
-		MaxAltitude:       f.Limits.MaxAltFt * model.Foot,
-		CLBuffet:          f.Limits.CLBuffet,
+	if len(missing) > 0 {
+		return nil, fmt.Errorf("%s: %s: missing (required)", name, strings.Join(missing, ", "))
 	}
-	if md.IsDefined("engine", "max_cruise_thrust_per_delta_n") && f.Engine.MaxThrustPerDelta <= 0 {
-		return nil, fmt.Errorf("%s: engine.max_cruise_thrust_per_delta_n: must be > 0 when given, got %g",
-			at("engine.max_cruise_thrust_per_delta_n"), f.Engine.MaxThrustPerDelta)
+	t := &model.Type{
+		Name:           *f.Name,
+		WingArea:       *f.Wing.AreaM2,
+		Span:           *f.Wing.SpanM,
+		CD0:            *f.Polar.CD0,
+		Oswald:         *f.Polar.Oswald,
+		KappaA:         *f.Wave.KappaA,
+		ThicknessRatio: *f.Wave.ThicknessRatio,
+		Sweep:          *f.Wave.SweepDeg * math.Pi / 180,
+		EngineCount:    *f.Engine.Count,
+		TSFCA:          model.TSFCPerHour(*f.Engine.TSFCAPerH),
+		TSFCB:          model.TSFCPerHour(*f.Engine.TSFCBPerH),
+		MMO:            *f.Limits.MMO,
+		MaxAltitude:    *f.Limits.MaxAltFt * model.Foot,
+		CLBuffet:       *f.Limits.CLBuffet,
+	}
+	if v := f.Engine.MaxThrustPerDelta; v != nil {
+		if !(*v > 0) {
+			return nil, fmt.Errorf("%s: engine.max_cruise_thrust_per_delta_n: must be > 0 when given, got %g",
+				at("engine.max_cruise_thrust_per_delta_n"), *v)
+		}
+		t.MaxThrustPerDelta = *v
 	}
 	if err := t.Validate(); err != nil {
 		var fe *model.FieldError
@@ -162,37 +185,35 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 	return t, nil
 }
 
-// keyLines maps each dotted key of a simple TOML document (tables and
-// key = value lines) to its 1-based line, for error messages.
+// keyLines maps each dotted key of a TOML document to the 1-based line of
+// its value, from go-toml's own parser, for error messages. The document
+// has already been decoded, so it parses.
 func keyLines(data []byte) map[string]int {
 	out := map[string]int{}
-	table := ""
-	sc := bufio.NewScanner(bytes.NewReader(data))
-	for n := 1; sc.Scan(); n++ {
-		line := strings.TrimSpace(sc.Text())
-		switch {
-		case line == "" || line[0] == '#':
-		case line[0] == '[':
-			table = strings.TrimSpace(strings.Trim(line[:strings.IndexByte(line+"]", ']')], "[]"))
-		default:
-			k, _, ok := strings.Cut(line, "=")
-			if !ok {
-				continue
-			}
-			k = strings.Trim(strings.TrimSpace(k), `"'`)
-			if table != "" {
-				k = table + "." + k
-			}
-			if _, seen := out[k]; !seen {
-				out[k] = n
+	var p unstable.Parser
+	p.Reset(data)
+	var table []string
+	for p.NextExpression() {
+		e := p.Expression()
+		var key []string
+		for it := e.Key(); it.Next(); {
+			key = append(key, string(it.Node().Data))
+		}
+		switch e.Kind {
+		case unstable.Table, unstable.ArrayTable:
+			table = key
+		case unstable.KeyValue:
+			full := strings.Join(append(append([]string{}, table...), key...), ".")
+			if v := e.Value(); v != nil && v.Raw.Length > 0 {
+				out[full] = p.Shape(v.Raw).Start.Line
 			}
 		}
 	}
 	return out
 }
 
-// FormatType writes t as a type file (DESIGN.md §3.2) that ParseType reads
-// back to the same values.
+// FormatType writes t as a type file that ParseType reads back to the same
+// values.
 func FormatType(t *model.Type) []byte {
 	var b bytes.Buffer
 	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 15, 64) } // 15 digits hide the rounding of unit conversions

@@ -63,10 +63,12 @@ func TestParseTypeErrors(t *testing.T) {
 		{"mmo of 1", strings.Replace(demo, "mmo = 0.82", "mmo = 1.0", 1), "limits.mmo: must be in (0, 1)"},
 		{"missing key", strings.Replace(demo, "cl_buffet = 0.85", "", 1), "x.toml: limits.cl_buffet: missing (required)"},
 		{"unknown key", strings.Replace(demo, "sweep_deg = 25.0", "sweep_deg = 25.0\nflap = 3", 1), "x.toml:23: wave.flap: unknown key"},
-		{"wrong type", strings.Replace(demo, "mmo = 0.82", `mmo = "fast"`, 1), "x.toml:31: limits.mmo: incompatible types"},
-		{"syntax error", demo + "\n[limits\n", "to end table name"},
+		{"wrong type", strings.Replace(demo, "mmo = 0.82", `mmo = "fast"`, 1), "x.toml:31: limits.mmo: must be a number"},
+		{"count not whole", strings.Replace(demo, "count = 2", "count = 2.5", 1), "engine.count: must be a whole number"},
+		{"two unknown keys, each with its line", strings.Replace(demo, "sweep_deg = 25.0", "sweep_deg = 25.0\nflap = 3\nslat = 1", 1), "x.toml:23: wave.flap: unknown key; x.toml:24: wave.slat: unknown key"},
+		{"syntax error", demo + "\n[limits\n", ":35: expected ']' to close table name"},
 		{"zero thrust when given", strings.Replace(demo, "= 125000.0", "= 0.0", 1), "engine.max_cruise_thrust_per_delta_n: must be > 0 when given"},
-		{"empty file", "", "x.toml: name: missing (required)"},
+		{"empty file lists every missing key", "", "x.toml: name, wing.area_m2, wing.span_m, polar.cd0"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -140,4 +142,21 @@ func TestFormatTypeRoundTrip(t *testing.T) {
 			t.Errorf("%s: %+v", path, back)
 		}
 	}
+}
+
+// FuzzParseType: any bytes give a type or an error, never a panic, and a
+// type that parses is valid. Run with 'go test ./feed -fuzz FuzzParseType'.
+func FuzzParseType(f *testing.F) {
+	f.Add(DemoTypeTOML())
+	f.Add([]byte(""))
+	f.Add([]byte("[limits\n"))
+	f.Add([]byte("name = 3\n[wing]\narea_m2 = \"x\"\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		ty, err := ParseType("fuzz.toml", data)
+		if err == nil {
+			if verr := ty.Validate(); verr != nil {
+				t.Fatalf("parsed an invalid type: %v", verr)
+			}
+		}
+	})
 }
