@@ -9,7 +9,8 @@ import (
 	"dragdeck/model"
 )
 
-// bankJSON is one row of the stable bank-table JSON (DESIGN.md §5).
+// bankJSON is one row of the stable bank-table JSON; its field names are
+// used by scripts and do not change.
 type bankJSON struct {
 	BankDeg                float64 `json:"bank_deg"`
 	LoadFactor             float64 `json:"load_factor"`
@@ -24,7 +25,9 @@ func runBank(e *env, args []string) error {
 		`Bank-angle penalty at one weight, level and Mach, for 0 to 45° of bank in 5°
 steps. A level turn needs lift n W g with load factor n = 1/cos(bank): induced
 drag grows by n^2 and wave drag is taken at the turning CL; the extra fuel
-flow is TSFC times the extra drag. Without --sat-c the ISA temperature is used.`,
+flow is TSFC times the extra drag. Without --sat-c the ISA temperature is used.
+Rows where CL × 1.3 exceeds the type's buffet-onset CL (the 1.3 g margin is
+not kept) are marked "! beyond buffet".`,
 		"dragdeck bank --weight-kg 65000 --alt-ft 35000 --mach 0.78")
 	typ := fs.typeFlag()
 	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
@@ -67,12 +70,23 @@ flow is TSFC times the extra drag. Without --sat-c the ISA temperature is used.`
 	fmt.Fprintf(e.stdout, "Bank-angle penalty: %s\n%.0f kg at %.0f ft, Mach %.3f, SAT %.1f °C (ISA %+.1f); wings level %.0f kg/h\n\n",
 		t.Name, *w, *alt, *mach, T-model.CelsiusZero, air.ISADev(), base.FuelFlow*model.Hour)
 	tw := tabwriter.NewWriter(e.stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "bank °\tload factor\tCL\tinduced drag\ttotal drag\textra fuel kg/h\t")
+	fmt.Fprintln(tw, "bank °\tload factor\tCL\tinduced drag\ttotal drag\textra fuel kg/h\t\t")
+	beyond := 0
 	for _, r := range rows {
-		fmt.Fprintf(tw, "%.0f\t%.4f\t%.3f\t%+.1f %%\t%+.1f %%\t%+.0f\t\n", degrees(r.Bank), r.LoadFactor, r.CL,
-			r.InducedIncreasePct, r.TotalIncreasePct, r.ExtraFuelFlow*model.Hour)
+		mark := ""
+		if r.Buffet {
+			mark, beyond = "! beyond buffet", beyond+1
+		}
+		fmt.Fprintf(tw, "%.0f\t%.4f\t%.3f\t%+.1f %%\t%+.1f %%\t%+.0f\t%s\t\n", degrees(r.Bank), r.LoadFactor, r.CL,
+			r.InducedIncreasePct, r.TotalIncreasePct, r.ExtraFuelFlow*model.Hour, mark)
 	}
 	tw.Flush()
+	if beyond > 0 {
+		fmt.Fprintf(e.stdout, "\n! beyond buffet: CL × 1.3 exceeds the type's buffet-onset CL %.3f; the 1.3 g margin is not kept.\n", t.CLBuffet)
+	}
+	if mb := model.MinBuffetMach(t, *w, air); *mach < mb {
+		fmt.Fprintf(e.stdout, "Mach %.3f is below the buffet-limited Mach %.3f for this weight and level: even wings level is beyond buffet.\n", *mach, mb)
+	}
 	fmt.Fprintf(e.stdout, "\n%s\n", caution)
 	return nil
 }

@@ -10,12 +10,13 @@ import (
 
 func runDemo(e *env, args []string) error {
 	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE]",
-		`Writes the invented demo fleet into DIR: snapshots.csv (cruise snapshots of
-every tail, with a few broken rows on purpose), type.toml (the demo type),
-events.csv (repairs and washes), traces/ (per-minute records of a few whole
-flights, for replay) and truth.json (what was injected per tail: drift, steps,
-offsets, expected flags, and the broken rows). The same seed gives the same
-bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
+		`Writes the invented demo fleet into DIR: snapshots/fleet.csv (cruise
+snapshots of every tail, with a few broken rows on purpose), type.toml (the
+demo type), events.csv (repairs and washes), traces/ (per-minute records of a
+few whole flights, for replay) and truth.json (what was injected per tail:
+drift, steps, offsets, expected flags, and the broken rows). The data ends on
+a fixed date in the past (2026-06-30) and runs back --days from it. The same
+seed gives the same bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
 1.1 million rows. --type flies another aircraft type: weights scale with its
 wing area and buffet limit, speeds with its maximum-range Mach.`,
 		"dragdeck demo --out /tmp/fleet --tails 24 --days 730 --seed 1")

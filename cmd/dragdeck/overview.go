@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"strings"
 	"text/tabwriter"
 
 	"dragdeck/feed"
@@ -25,7 +26,12 @@ func runOverview(e *env) error {
 			mr.Mach, lrc.Mach, mr.FuelFlow*model.Hour, mr.SR/model.NauticalMile*1000)
 	}
 	tw.Flush()
+	var names []string
+	for _, c := range commands() {
+		names = append(names, c.name)
+	}
 	fmt.Fprintf(e.stdout, "\nSpeeds, fuel flow and specific range are at the optimum altitude.\n"+
-		"Run 'dragdeck help' for the commands (point, speed, bank).\n\n%s\n", caution)
+		"Commands: %s.\nRun 'dragdeck help' for what each does, 'dragdeck COMMAND --help' for its flags.\n\n%s\n",
+		strings.Join(names, ", "), caution)
 	return nil
 }

@@ -11,7 +11,8 @@ import (
 	"dragdeck/model"
 )
 
-// pointJSON is the stable JSON of one analysed snapshot (DESIGN.md §5).
+// pointJSON is the stable JSON of one analysed snapshot; its field names
+// are used by scripts and do not change.
 type pointJSON struct {
 	CL                   float64 `json:"cl"`
 	CDMeasured           float64 `json:"cd_measured"`
@@ -54,7 +55,11 @@ func runPoint(e *env, args []string) error {
 Thrust comes from fuel flow through TSFC = (a + b M) sqrt(theta); drag is thrust
 less the climb and acceleration terms (energy method). The measured drag
 coefficient is split into induced (k CL^2), wave (Korn + Lock) and parasite
-parts; the excess over the baseline is given in drag counts (0.0001) and in %.`,
+parts; the excess over the baseline is given in drag counts (0.0001) and in %.
+A vertical speed at or above the true airspeed is refused. A lift coefficient
+beyond the 1.3 g buffet margin, or a negative parasite drag (thrust that does
+not cover induced and wave drag), is warned about on stderr and listed in
+the JSON "warnings".`,
 		"dragdeck point --weight-kg 65000 --alt-ft 35000 --mach 0.78 --fuel-flow-kgph 2350 --sat-c -54")
 	typ := fs.typeFlag()
 	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
@@ -87,8 +92,18 @@ parts; the excess over the baseline is given in drag counts (0.0001) and in %.`,
 		return flagError(bad)
 	}
 	p := model.Analyze(t, s)
+	warnings := p.Warnings(t)
+	for _, w := range warnings {
+		fmt.Fprintf(e.stderr, "dragdeck point: warning: %s\n", w)
+	}
 	if *asJSON {
-		return writeJSON(e.stdout, newPointJSON(p))
+		if warnings == nil {
+			warnings = []string{}
+		}
+		return writeJSON(e.stdout, struct {
+			pointJSON
+			Warnings []string `json:"warnings"`
+		}{newPointJSON(p), warnings})
 	}
 	writePointTable(e.stdout, t, s, p)
 	return nil

@@ -139,7 +139,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 
 func runReport(e *env, args []string) error {
 	fs := newFlagSet("report", "dragdeck report [--type FILE] [--format table|csv|json] [--events FILE] [flags] PATH...",
-		`Per-tail drag trend and flags for a fleet (DESIGN.md §4.8–§4.10). Every
+		`Per-tail drag trend and flags for a fleet (the method is in the README). Every
 accepted snapshot is analysed against the baseline polar; points beyond the
 limits below are left out and counted. Per tail: the recent level (median
 per-flight deviation over the last --recent-days), the drift (Theil–Sen slope

@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -189,5 +190,90 @@ func TestReportPlots(t *testing.T) {
 		if len(b) < 2000 || string(b[1:4]) != "PNG" {
 			t.Errorf("%s is not a PNG picture (%d bytes)", f, len(b))
 		}
+	}
+}
+
+// One broken file in a folder of good ones: it is named, the others are
+// reported, and the exit code (2) says that something failed.
+func TestReportGoesOnPastABrokenFile(t *testing.T) {
+	dir := t.TempDir()
+	good, _ := os.ReadFile("../../testdata/snapshots/good_kg_sat.csv")
+	os.WriteFile(filepath.Join(dir, "a.csv"), good, 0o644)
+	os.WriteFile(filepath.Join(dir, "b.csv"), []byte(""), 0o644)
+	os.WriteFile(filepath.Join(dir, "c.csv"), []byte("time,tail\n2026-01-01T00:00:00Z,X\n"), 0o644)
+	code, out, errs := runArgs("report", "--format", "json", dir)
+	if code != exitUsage {
+		t.Errorf("exit %d, want 2", code)
+	}
+	var rep reportOut
+	if err := json.Unmarshal([]byte(out), &rep); err != nil || rep.Fleet.Tails == 0 {
+		t.Fatalf("no report of the good file (%v):\n%s", err, out)
+	}
+	for _, name := range []string{"b.csv", "c.csv", "2 of 3 file(s) could not be read"} {
+		if !strings.Contains(errs, name) {
+			t.Errorf("stderr does not name %q:\n%s", name, errs)
+		}
+	}
+}
+
+// A file whose fuel flow is one engine's makes every snapshot implausible:
+// the tail has no level, its excess fuel is null (not 0), and the report
+// says why.
+func TestReportSaysWhyNoLevel(t *testing.T) {
+	dir := t.TempDir()
+	var b strings.Builder
+	b.WriteString("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n")
+	for d := 0; d < 40; d++ {
+		fmt.Fprintf(&b, "2026-03-%02dT10:00:00Z,ONE,F%d,65000,35000,0.78,-54,1200\n", 1+d%28, d)
+	}
+	p := filepath.Join(dir, "one-engine.csv")
+	os.WriteFile(p, []byte(b.String()), 0o644)
+	code, out, errs := runArgs("report", "--format", "json", p)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var raw struct {
+		Tails []map[string]any `json:"tails"`
+	}
+	if err := json.Unmarshal([]byte(out), &raw); err != nil || len(raw.Tails) != 1 {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	tail := raw.Tails[0]
+	if v, ok := tail["excess_fuel_kg_per_year"]; !ok || v != nil {
+		t.Errorf("excess_fuel_kg_per_year = %v, want null", v)
+	}
+	why, _ := tail["no_level_reason"].(string)
+	if !strings.Contains(why, "all 40 snapshots left out") || !strings.Contains(why, "fuel flow that of all engines") {
+		t.Errorf("no_level_reason %q", why)
+	}
+	_, out, _ = runArgs("report", p)
+	if !strings.Contains(out, "No recent level") || !strings.Contains(out, "fuel flow that of all engines") {
+		t.Errorf("table does not say why:\n%s", out)
+	}
+}
+
+// --plots with no tails writes nothing and does not panic.
+func TestReportPlotsNoTails(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "empty.csv")
+	os.WriteFile(p, []byte("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"), 0o644)
+	code, _, errs := runArgs("report", "--plots", filepath.Join(dir, "plots"), p)
+	if code != 0 || !strings.Contains(errs, "0 plot(s)") {
+		t.Errorf("exit %d: %s", code, errs)
+	}
+}
+
+// --rejects naming an input file is refused, and the file is left whole.
+func TestReportRejectsNotAnInput(t *testing.T) {
+	dir := t.TempDir()
+	good, _ := os.ReadFile("../../testdata/snapshots/good_kg_sat.csv")
+	p := filepath.Join(dir, "f.csv")
+	os.WriteFile(p, good, 0o644)
+	code, _, errs := runArgs("report", "--rejects", p, p)
+	if code != exitUsage || !strings.Contains(errs, "is one of the input files") {
+		t.Errorf("exit %d: %s", code, errs)
+	}
+	if after, _ := os.ReadFile(p); string(after) != string(good) {
+		t.Error("the input file was changed")
 	}
 }

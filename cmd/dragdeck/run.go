@@ -8,7 +8,7 @@ import (
 	"strings"
 )
 
-// Exit codes (DESIGN.md §5).
+// Exit codes: 0 success, 1 findings, 2 usage or input errors.
 const (
 	exitOK       = 0
 	exitFindings = 1
@@ -62,6 +62,9 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 	switch name {
 	case "help", "-h", "-help", "--help":
 		topUsage(stdout)
+		return exitOK
+	case "version", "--version", "-version":
+		fmt.Fprintf(stdout, "dragdeck %s\n", version())
 		return exitOK
 	}
 	for _, c := range commands() {
@@ -124,7 +127,8 @@ commands:
 		fmt.Fprintf(&b, "  %-8s %s\n", c.name, c.summary)
 	}
 	b.WriteString(`
-Run 'dragdeck COMMAND --help' for a command's flags and an example.
+Run 'dragdeck COMMAND --help' for a command's flags and an example, and
+'dragdeck --version' for the version.
 Units: weights in kg, altitudes in ft (pressure altitude), temperatures in °C,
 fuel flow in kg/h; --json output uses the same units, named in each field.
 Exit codes: 0 success, 1 findings, 2 usage or input error.

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
 	"math"
 	"sort"
 	"strings"
@@ -194,5 +195,84 @@ func TestBankJSON(t *testing.T) {
 	// 30°: n = 1.1547, induced +33.3 % (n = 1/cos φ).
 	if r := rows[6]; math.Abs(r["load_factor"]-1.1547) > 5e-5 || math.Abs(r["induced_drag_increase_pct"]-33.33) > 0.005 {
 		t.Errorf("30° row %v", r)
+	}
+}
+
+// User-facing text stands alone: no help cites a document that is not in
+// the repository.
+func TestHelpStandsAlone(t *testing.T) {
+	_, top, _ := runArgs("help")
+	texts := map[string]string{"help": top}
+	for _, c := range commands() {
+		_, out, _ := runArgs(c.name, "--help")
+		texts[c.name] = out
+	}
+	for name, s := range texts {
+		if strings.Contains(s, "DESIGN") || strings.Contains(s, "§") {
+			t.Errorf("%s help cites the design document:\n%s", name, s)
+		}
+	}
+	// The overview (no arguments, not a terminal) names every command.
+	_, out, _ := runArgs()
+	for _, c := range commands() {
+		if !strings.Contains(out, c.name) {
+			t.Errorf("overview lacks %s", c.name)
+		}
+	}
+}
+
+func TestVersion(t *testing.T) {
+	for _, arg := range []string{"--version", "version"} {
+		code, out, errs := runArgs(arg)
+		if code != 0 || !strings.HasPrefix(out, "dragdeck ") || !strings.Contains(out, "go1.") || errs != "" {
+			t.Errorf("%s: exit %d %q %q", arg, code, out, errs)
+		}
+	}
+}
+
+// point refuses a vertical speed at or above TAS (sin γ > 1) and warns about
+// a CL beyond buffet and a negative parasite drag, on stderr and in JSON.
+func TestPointWarnings(t *testing.T) {
+	base := []string{"point", "--weight-kg", "65000", "--alt-ft", "35000", "--sat-c", "-54"}
+	code, _, errs := runArgs(append(base, "--mach", "0.78", "--fuel-flow-kgph", "2400", "--vs-fpm", "50000")...)
+	if code != exitUsage || !strings.Contains(errs, "--vs-fpm") {
+		t.Errorf("VS above TAS: exit %d %s", code, errs)
+	}
+	code, out, errs := runArgs(append(base, "--mach", "0.45", "--fuel-flow-kgph", "2400", "--json")...)
+	if code != 0 || !strings.Contains(errs, "buffet") {
+		t.Errorf("slow and heavy: exit %d, stderr %q", code, errs)
+	}
+	var j struct{ Warnings []string }
+	if json.Unmarshal([]byte(out), &j) != nil || len(j.Warnings) == 0 || !strings.Contains(j.Warnings[0], "buffet") {
+		t.Errorf("JSON warnings %v:\n%s", j.Warnings, out)
+	}
+	_, _, errs = runArgs(append(base, "--mach", "0.78", "--fuel-flow-kgph", "600")...)
+	if !strings.Contains(errs, "parasite drag") || !strings.Contains(errs, "negative") {
+		t.Errorf("low fuel flow: stderr %q", errs)
+	}
+	_, out, errs = runArgs(append(base, "--mach", "0.78", "--fuel-flow-kgph", "2400", "--json")...)
+	if errs != "" || !strings.Contains(out, `"warnings": []`) {
+		t.Errorf("a clean point warns: %q\n%s", errs, out)
+	}
+}
+
+// bank marks the rows beyond buffet, as the Turns screen does.
+func TestBankMarksBuffet(t *testing.T) {
+	_, out, _ := runArgs("bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78")
+	ty := feed.DemoType()
+	rows := model.BankTable(ty, 65000, model.AirISA(35000*model.Foot, 0), 0.78, 0)
+	for _, r := range rows {
+		line := ""
+		for _, l := range strings.Split(out, "\n") {
+			if f := strings.Fields(l); len(f) > 1 && f[0] == fmt.Sprint(degrees(r.Bank)) && strings.Contains(l, "%") {
+				line = l
+			}
+		}
+		if r.Buffet != strings.Contains(line, "beyond buffet") {
+			t.Errorf("%v° (buffet %v): %q", degrees(r.Bank), r.Buffet, line)
+		}
+	}
+	if !strings.Contains(out, "1.3 g margin is not kept") {
+		t.Errorf("no buffet footnote:\n%s", out)
 	}
 }

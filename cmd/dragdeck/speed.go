@@ -10,7 +10,7 @@ import (
 	"dragdeck/model"
 )
 
-// speedJSON is the stable JSON of a cruise optimum (DESIGN.md §5), for the
+// speedJSON is the stable JSON of a cruise optimum , for the
 // polar asked for (the baseline plus --excess-counts).
 type speedJSON struct {
 	MachMinDrag      float64 `json:"mach_min_drag"`

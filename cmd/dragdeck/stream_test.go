@@ -108,3 +108,54 @@ func TestFollowCommand(t *testing.T) {
 		t.Errorf("follow without FILE: exit %d", code)
 	}
 }
+
+// /dev/null is a character device but not a terminal: replay, follow,
+// dash and plain dragdeck write to it as to a file or pipe, exit 0.
+func TestDevNullIsNotATerminal(t *testing.T) {
+	null, err := os.Open(os.DevNull)
+	if err != nil {
+		t.Skip(err)
+	}
+	defer null.Close()
+	if isTerminal(null) {
+		t.Fatal("/dev/null taken for a terminal")
+	}
+	out, _ := os.OpenFile(os.DevNull, os.O_WRONLY, 0)
+	defer out.Close()
+	for _, args := range [][]string{
+		{"replay", "--speed", "0", "../../testdata/snapshots/good_kg_sat.csv"},
+		nil, // plain dragdeck: the cruise table
+	} {
+		var errb bytes.Buffer
+		if code := run(context.Background(), args, strings.NewReader(""), out, &errb); code != 0 {
+			t.Errorf("%v >/dev/null: exit %d: %s", args, code, errb.String())
+		}
+	}
+	var errb bytes.Buffer
+	if code := run(context.Background(), []string{"dash", "../../testdata/snapshots/good_kg_sat.csv"}, strings.NewReader(""), out, &errb); code != exitUsage ||
+		!strings.Contains(errb.String(), "needs a terminal") {
+		t.Errorf("dash >/dev/null: exit %d: %s", code, errb.String())
+	}
+}
+
+// follow --tail keeps one tail's rows.
+func TestFollowTail(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "live.csv")
+	os.WriteFile(path, []byte("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"+
+		"2026-03-01T10:00:00Z,AAA,F1,65000,35000,0.78,-54,2400\n"+
+		"2026-03-01T10:01:00Z,BBB,F2,65000,35000,0.78,-54,2400\n"), 0o644)
+	ctx, cancel := context.WithCancel(context.Background())
+	var out syncBuffer
+	done := make(chan int)
+	go func() {
+		done <- run(ctx, []string{"follow", "--tail", "BBB", path}, strings.NewReader(""), &out, io.Discard)
+	}()
+	for !strings.Contains(out.String(), "BBB") {
+		time.Sleep(10 * time.Millisecond)
+	}
+	cancel()
+	<-done
+	if strings.Contains(out.String(), "AAA") || strings.Count(out.String(), "\n") != 1 {
+		t.Errorf("follow --tail BBB wrote:\n%s", out.String())
+	}
+}

@@ -160,7 +160,7 @@ func (g *demoGen) newTruth() Truth {
 		BrokenRows:     []BrokenRow{},
 		Traces:         []TraceTruth{},
 		Note: "Invented data. Deviations are drag deviation % from the baseline polar; expected_flags follow " +
-			"DESIGN.md §4.9 with the thresholds above and the fleet median recent level.",
+			"the flag rules (level, growth, step; see the README's method) with the thresholds above and the fleet median recent level.",
 	}
 }
 
