@@ -3,6 +3,8 @@ package model
 import (
 	"math"
 	"sort"
+
+	"gonum.org/v1/gonum/stat"
 )
 
 // Flag names (DESIGN.md §4.9).
@@ -111,4 +113,29 @@ func nanLow(v float64) float64 {
 		return math.Inf(-1)
 	}
 	return v
+}
+
+// DeviationRange is the 2nd and 98th percentiles (linear interpolation,
+// gonum stat.Quantile) of every per-flight deviation of the fleet, %: a
+// common scale for comparing tails that a few outliers do not flatten. It
+// is −1…1 around the only value when all are equal, and 0…1 without
+// flights.
+func (f Fleet) DeviationRange() (lo, hi float64) {
+	var v []float64
+	for _, a := range f.Tails {
+		for _, fl := range a.Flights {
+			if !math.IsNaN(fl.DevPct) {
+				v = append(v, fl.DevPct)
+			}
+		}
+	}
+	if len(v) == 0 {
+		return 0, 1
+	}
+	sort.Float64s(v)
+	lo, hi = stat.Quantile(0.02, stat.LinInterp, v, nil), stat.Quantile(0.98, stat.LinInterp, v, nil)
+	if !(hi > lo) {
+		return lo - 1, lo + 1
+	}
+	return lo, hi
 }

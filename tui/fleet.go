@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 	"strings"
 
 	"github.com/charmbracelet/bubbles/cursor"
@@ -13,7 +12,6 @@ import (
 	"github.com/charmbracelet/bubbles/textinput"
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
-	"gonum.org/v1/gonum/stat"
 
 	"dragdeck/model"
 )
@@ -107,13 +105,7 @@ func (s *fleetScreen) FullHelp() [][]key.Binding {
 // SetData gives the screen its fleet.
 func (s *fleetScreen) SetData(d *Data) {
 	s.data = d
-	var all []float64
-	for _, a := range d.Fleet.Tails {
-		for _, f := range a.Flights {
-			all = append(all, f.DevPct)
-		}
-	}
-	s.sparkLo, s.sparkHi = percentileRange(all)
+	s.sparkLo, s.sparkHi = d.Fleet.DeviationRange()
 	s.sparks, s.sparkW = nil, -1
 	s.applyFilter()
 }
@@ -352,22 +344,6 @@ func (s *fleetScreen) sparkFor(a model.TailAssessment, w int) string {
 	sp := sparkline(devs, w, s.sparkLo, s.sparkHi)
 	s.sparks[a.Tail] = sp
 	return sp
-}
-
-// percentileRange returns the 2nd and 98th percentiles of v, the display
-// scale of the sparklines (one that outliers do not flatten), or 0…1
-// without data.
-func percentileRange(v []float64) (float64, float64) {
-	if len(v) == 0 {
-		return 0, 1
-	}
-	c := append([]float64(nil), v...)
-	sort.Float64s(c)
-	lo, hi := stat.Quantile(0.02, stat.LinInterp, c, nil), stat.Quantile(0.98, stat.LinInterp, c, nil)
-	if !(hi > lo) {
-		return lo - 1, lo + 1
-	}
-	return lo, hi
 }
 
 func fmtSigned(v float64, prec int) string {
