@@ -5,6 +5,7 @@ import (
 	"strings"
 	"testing"
 
+	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 )
 
@@ -35,6 +36,25 @@ func TestFleetFilter(t *testing.T) {
 	press(m, "down", "down", "up")
 	if m.fleet.cursor != 1 {
 		t.Errorf("cursor %d after down down up", m.fleet.cursor)
+	}
+}
+
+// Runes that arrive in one read ("jjj", as fast typing or tmux send-keys
+// gives them) are taken as one key each; a paste into the filter stays
+// whole.
+func TestRunesArriveTogether(t *testing.T) {
+	m := sized(demoFleet(t), 80, 24)
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("jjj")})
+	if m.fleet.cursor != 3 {
+		t.Errorf("cursor %d after \"jjj\" in one message, want 3", m.fleet.cursor)
+	}
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("/DD1")})
+	if !m.fleet.Capturing() || m.fleet.filter.Value() != "DD1" {
+		t.Errorf("\"/DD1\" in one message: capturing %v, filter %q", m.fleet.Capturing(), m.fleet.filter.Value())
+	}
+	m.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("0q"), Paste: true})
+	if m.fleet.filter.Value() != "DD10q" {
+		t.Errorf("pasted \"0q\": filter %q", m.fleet.filter.Value())
 	}
 }
 

@@ -116,7 +116,9 @@ func checkFrame(t *testing.T, m *Model, w, h int) string {
 // keyMsg is the key message of a key name.
 func keyMsg(k string) tea.KeyMsg {
 	types := map[string]tea.KeyType{"enter": tea.KeyEnter, "esc": tea.KeyEsc, "tab": tea.KeyTab,
-		"shift+tab": tea.KeyShiftTab, "up": tea.KeyUp, "down": tea.KeyDown}
+		"shift+tab": tea.KeyShiftTab, "up": tea.KeyUp, "down": tea.KeyDown, "left": tea.KeyLeft,
+		"right": tea.KeyRight, "home": tea.KeyHome, "end": tea.KeyEnd, "pgup": tea.KeyPgUp,
+		"pgdown": tea.KeyPgDown, "ctrl+c": tea.KeyCtrlC}
 	if t, ok := types[k]; ok {
 		return tea.KeyMsg{Type: t}
 	}

@@ -290,6 +290,19 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 }
 
 func (m *Model) key(msg tea.KeyMsg) (tea.Model, tea.Cmd) {
+	// bubbletea delivers runes that arrive in one read (keys typed fast,
+	// tmux send-keys) as one message, "jjj"; the bindings match one key
+	// each, so they are taken one at a time. A paste stays whole.
+	if msg.Type == tea.KeyRunes && len(msg.Runes) > 1 && !msg.Paste {
+		var cmds []tea.Cmd
+		for _, r := range msg.Runes {
+			one := msg
+			one.Runes = []rune{r}
+			_, cmd := m.key(one)
+			cmds = append(cmds, cmd)
+		}
+		return m, tea.Batch(cmds...)
+	}
 	scr := m.screens[m.active]
 	if c, ok := scr.(Capturing); ok && c.Capturing() {
 		if key.Matches(msg, global.ForceQuit) {
