@@ -394,5 +394,8 @@ func (m *Model) loadingView(h int) string {
 		frac = math.Min(1, float64(done)/float64(m.loader.Total))
 	}
 	msg := fmt.Sprintf("reading and analysing snapshots: %.1f of %.1f MB", float64(done)/1e6, float64(m.loader.Total)/1e6)
+	if m.loader.Total > 0 && done >= m.loader.Total {
+		msg = fmt.Sprintf("%.1f MB read; trends, flags and cost per tail…", float64(m.loader.Total)/1e6)
+	}
 	return lipgloss.Place(m.w, h, lipgloss.Center, lipgloss.Center, msg+"\n\n"+m.bar.ViewAs(frac)+"\n\n"+m.st.Muted.Render("tab: About · q: quit"))
 }

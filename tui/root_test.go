@@ -5,6 +5,7 @@ import (
 	"errors"
 	"math"
 	"strings"
+	"sync/atomic"
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -112,6 +113,12 @@ func TestLoading(t *testing.T) {
 	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
 	if v := m.View(); !strings.Contains(v, "reading and analysing") {
 		t.Errorf("loading view:\n%s", v)
+	}
+	var read atomic.Int64
+	read.Store(100)
+	l.Progress = &read
+	if v := m.View(); !strings.Contains(v, "trends, flags and cost") {
+		t.Errorf("all bytes read, the view should name the trend stage:\n%s", v)
 	}
 	press(m, "tab", "tab", "tab", "tab", "tab")
 	if m.active != scrAbout {
