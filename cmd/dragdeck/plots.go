@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -71,11 +72,12 @@ func tailPlot(a model.TailAssessment, c model.TrendConfig) *plot.Plot {
 	p := plot.New()
 	title := fmt.Sprintf("%s: drag deviation per flight", a.Tail)
 	if len(a.Flags) > 0 {
-		title += fmt.Sprintf("  (flags: %v)", a.Flags)
+		title += "  (flags: " + strings.Join(a.Flags, ", ") + ")"
 	}
 	p.Title.Text = title
 	p.Y.Label.Text = "drag deviation from baseline, %"
-	p.X.Tick.Marker = plot.TimeTicks{Format: "2006-01"}
+	p.X.Tick.Marker = monthTicks{8}
+	p.Y.Tick.Marker = roundTicks{6}
 	p.Add(plotter.NewGrid())
 
 	n := len(a.Flights)
@@ -151,6 +153,7 @@ func fleetPlot(f model.Fleet) *plot.Plot {
 	p := plot.New()
 	p.Title.Text = fmt.Sprintf("Fleet: recent drag deviation per tail (%d flagged)", f.Flagged)
 	p.X.Label.Text = "recent drag deviation from baseline, %"
+	p.X.Tick.Marker = roundTicks{8}
 	p.Add(plotter.NewGrid())
 	tails := append([]model.TailAssessment(nil), f.Tails...)
 	sort.SliceStable(tails, func(i, j int) bool { return nanLowF(tails[i].RecentPct) < nanLowF(tails[j].RecentPct) })
