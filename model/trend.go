@@ -191,6 +191,13 @@ func (tr *TailTrend) DriftAt(t time.Time) float64 {
 // days is t in days since base.
 func days(t, base time.Time) float64 { return t.Sub(base).Hours() / 24 }
 
+// NewFlight reports whether a snapshot of flight id flight at t starts a new
+// flight after one of prevFlight at prevTime, of the same tail: the id
+// changes or more than gapHours pass between them.
+func NewFlight(prevFlight string, prevTime time.Time, flight string, t time.Time, gapHours float64) bool {
+	return flight != prevFlight || t.Sub(prevTime).Hours() > gapHours
+}
+
 // Flights groups time-ordered usable points into flights: a new flight
 // starts when the flight name changes or the gap exceeds gapHours; each
 // flight's deviation is the median of its snapshots.
@@ -209,7 +216,7 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 		out = append(out, FlightPoint{Time: pts[start].Time, Flight: pts[start].Flight, DevPct: median(devs), N: end - start})
 	}
 	for i := 1; i <= len(pts); i++ {
-		if i == len(pts) || pts[i].Flight != pts[i-1].Flight || pts[i].Time.Sub(pts[i-1].Time).Hours() > gapHours {
+		if i == len(pts) || NewFlight(pts[i-1].Flight, pts[i-1].Time, pts[i].Flight, pts[i].Time, gapHours) {
 			flush(i)
 			start = i
 		}

@@ -133,6 +133,29 @@ func TestFlights(t *testing.T) {
 	}
 }
 
+func TestNewFlight(t *testing.T) {
+	tests := []struct {
+		name   string
+		prev   string
+		after  time.Duration
+		flight string
+		want   bool
+	}{
+		{"same id, 20 min later", "A", 20 * time.Minute, "A", false},
+		{"same id, exactly the gap", "A", 6 * time.Hour, "A", false},
+		{"same id, past the gap", "A", 6*time.Hour + time.Minute, "A", true},
+		{"new id at once", "A", time.Minute, "B", true},
+		{"no ids, close", "", time.Hour, "", false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if got := NewFlight(tc.prev, day0, tc.flight, day0.Add(tc.after), 6); got != tc.want {
+				t.Errorf("NewFlight = %v, want %v", got, tc.want)
+			}
+		})
+	}
+}
+
 // Small hand-made tails with known answers (DESIGN.md §4.8).
 func TestAnalyzeTrend(t *testing.T) {
 	c := DefaultTrendConfig()

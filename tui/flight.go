@@ -3,6 +3,7 @@ package tui
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -297,7 +298,11 @@ func (s *flightScreen) render() {
 		if s.speed == 0 {
 			speed = "no waiting"
 		}
-		head = s.st.Title.Render("Flight "+clean(s.flight)+" · "+clean(s.tail)) + s.st.Muted.Render(fmt.Sprintf("  replay %d/%d · %s · %s", s.pos, len(s.recs), speed, state))
+		flight, tail := s.flight, s.tail
+		if r, _, ok := s.current(); ok {
+			flight, tail = r.Flight, r.Tail
+		}
+		head = s.st.Title.Render("Flight "+clean(flight)+" · "+clean(tail)) + s.st.Muted.Render(fmt.Sprintf("  replay %d/%d · %s · %s", s.pos, len(s.recs), speed, state))
 	}
 	lines := []string{head}
 	if s.notice != "" {
@@ -426,19 +431,59 @@ func (s *flightScreen) altLine(flown float64) string {
 		lo, sc, hi, fl(flown), fl(o.OptimumAltitude), fl(o.MaxAltitude), o.MaxAltLimit, s.excessPct, s.ownFrom), s.w)
 }
 
-// deviationChart draws the flight's drag deviation so far against minutes
-// from its first snapshot: the snapshots the trend uses joined, the ones it
-// leaves out as dots of their own.
-func (s *flightScreen) deviationChart(w, h int) string {
-	if s.pos < 2 {
-		return placeholder(w, h, "one snapshot so far")
+// flightSpan returns the indices into recs of the current snapshot's flight
+// (same tail, no new flight by model.NewFlight): played ones up to the
+// current snapshot, and the whole flight's last time when it is known (not
+// live). A replay of many flights or of a fleet thus charts one flight.
+func (s *flightScreen) flightSpan() (played []int, last time.Time) {
+	cur := s.recs[s.pos-1]
+	played = []int{s.pos - 1}
+	prev := cur
+	for j := s.pos - 2; j >= 0; j-- {
+		r := s.recs[j]
+		if r.Tail != cur.Tail {
+			continue
+		}
+		if model.NewFlight(r.Flight, r.Time, prev.Flight, prev.Time, s.cfg.FlightGap) {
+			break
+		}
+		played, prev = append(played, j), r
 	}
-	t0 := s.recs[0].Time
+	slices.Reverse(played)
+	last = cur.Time
+	if s.live {
+		return played, last
+	}
+	for j := s.pos; j < len(s.recs); j++ {
+		r := s.recs[j]
+		if r.Tail != cur.Tail {
+			continue
+		}
+		if model.NewFlight(cur.Flight, last, r.Flight, r.Time, s.cfg.FlightGap) {
+			break
+		}
+		last = r.Time
+	}
+	return played, last
+}
+
+// deviationChart draws the current flight's drag deviation so far against
+// minutes from its first snapshot: the snapshots the trend uses joined, the
+// ones it leaves out as dots of their own.
+func (s *flightScreen) deviationChart(w, h int) string {
+	if s.pos == 0 {
+		return placeholder(w, h, "no snapshot yet")
+	}
+	idx, last := s.flightSpan()
+	if len(idx) < 2 {
+		return placeholder(w, h, "first snapshot of this flight")
+	}
+	t0 := s.recs[idx[0]].Time
 	var used, out [][2]float64
-	ys := make([]float64, s.pos)
-	for i := 0; i < s.pos; i++ {
+	ys := make([]float64, len(idx))
+	for k, i := range idx {
 		pt := [2]float64{s.recs[i].Time.Sub(t0).Minutes(), s.points[i].DragDevPct}
-		ys[i] = pt[1]
+		ys[k] = pt[1]
 		if s.left[i] == "" {
 			used = append(used, pt)
 		} else {
@@ -446,10 +491,7 @@ func (s *flightScreen) deviationChart(w, h int) string {
 		}
 	}
 	lo, hi := span(ys, 0.1, 0.5)
-	maxX := math.Max(s.recs[s.pos-1].Time.Sub(t0).Minutes(), 1)
-	if !s.live {
-		maxX = math.Max(s.recs[len(s.recs)-1].Time.Sub(t0).Minutes(), 1)
-	}
+	maxX := math.Max(last.Sub(t0).Minutes(), 1)
 	spec := chartSpec{w: w, h: h, minX: 0, maxX: maxX, minY: lo, maxY: hi, axis: s.st.Muted,
 		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) + " min" }),
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f", v) },

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"math"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -116,6 +117,45 @@ func TestFlightMarksLeftOut(t *testing.T) {
 	s.seek(3)
 	if !strings.Contains(s.View(), "dots: left out") {
 		t.Errorf("no legend for the left-out snapshots:\n%s", s.View())
+	}
+}
+
+// A replay of many flights, interleaved with another tail's, charts and
+// names the current snapshot's flight only.
+func TestFlightChartsTheCurrentFlight(t *testing.T) {
+	d := demoFleet(t)
+	base := d.Records[d.Fleet.Tails[0].Tail][0]
+	t0 := base.Time
+	mk := func(tail, flight string, min float64) feed.Record {
+		r := base
+		r.Tail, r.Flight, r.Time = tail, flight, t0.Add(time.Duration(min*float64(time.Minute)))
+		return r
+	}
+	recs := []feed.Record{
+		mk("A", "A1", 0), mk("B", "B1", 5), mk("A", "A1", 20), mk("A", "A1", 40),
+		mk("A", "A2", 600), mk("B", "B1", 610), mk("A", "A2", 630), mk("A", "A2", 700),
+	}
+	s := newFlightScreen(NewStyles(DefaultTheme))
+	s.SetSize(100, 30)
+	s.Replay(d.Type, d.Config, "A", "A1", recs, 0, math.NaN())
+	s.seek(7) // up to A2's second snapshot
+	played, last := s.flightSpan()
+	if want := []int{4, 6}; !slices.Equal(played, want) {
+		t.Errorf("played %v, want A2's %v", played, want)
+	}
+	if want := t0.Add(700 * time.Minute); !last.Equal(want) {
+		t.Errorf("flight ends %v, want %v", last, want)
+	}
+	v := s.View()
+	if !strings.Contains(v, "Flight A2 · A") {
+		t.Errorf("header does not name the current flight:\n%s", v)
+	}
+	if strings.Contains(v, "600 min") || !strings.Contains(v, "min") {
+		t.Errorf("chart should span A2 (100 min), not the whole replay:\n%s", v)
+	}
+	s.seek(6)
+	if played, _ := s.flightSpan(); len(played) != 1 || !strings.Contains(s.View(), "first snapshot of this flight") {
+		t.Errorf("B's snapshot inside A2: played %v\n%s", played, s.View())
 	}
 }
 

@@ -78,7 +78,7 @@ func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 	var out []feed.Record
 	for ; i < len(recs); i++ {
 		rec := recs[i]
-		if rec.Flight != f.Flight || (len(out) > 0 && rec.Time.Sub(out[len(out)-1].Time).Hours() > r.Config.FlightGap) {
+		if rec.Flight != f.Flight || (len(out) > 0 && model.NewFlight(f.Flight, out[len(out)-1].Time, rec.Flight, rec.Time, r.Config.FlightGap)) {
 			break
 		}
 		out = append(out, rec)
