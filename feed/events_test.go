@@ -43,3 +43,38 @@ func TestReadEvents(t *testing.T) {
 		})
 	}
 }
+
+// FuzzReadEvents: any bytes give events or an error naming the file, never
+// a panic; every event kept has a tail and a UTC time.
+func FuzzReadEvents(f *testing.F) {
+	for _, s := range []string{
+		"time,tail,kind,note\n2026-03-01T05:00:00-05:00,DD101,wash,exterior\n",
+		`"0`, "# c\n", "time,tail,kind\n\"a\"\"b,DD1,x\n", "time,tail,kind\n2026-03-01T05:00:00Z,,wash\n",
+	} {
+		f.Add([]byte(s))
+	}
+	dir := f.TempDir()
+	f.Fuzz(func(t *testing.T, data []byte) {
+		p := filepath.Join(dir, "e.csv")
+		if err := os.WriteFile(p, data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		evs, err := ReadEvents(p)
+		if err != nil {
+			if !strings.Contains(err.Error(), p) {
+				t.Errorf("error %q does not name the file", err)
+			}
+			return
+		}
+		for tail, es := range evs {
+			if tail == "" {
+				t.Errorf("events kept without a tail: %v", es)
+			}
+			for _, e := range es {
+				if e.Time.Location() != time.UTC {
+					t.Errorf("%s: event time %v not UTC", tail, e.Time)
+				}
+			}
+		}
+	})
+}

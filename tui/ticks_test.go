@@ -16,8 +16,7 @@ func TestNiceTicks(t *testing.T) {
 	}{
 		{"bank 0–45°", 0, 45, 9, "0 5 10 15 20 25 30 35 40 45"},
 		{"bank 0–45° few", 0, 45, 3, "0 20 40"},
-		{"minutes of a flight", 0, 92, 6, "0 20 40 60 80"},
-		{"signed percent", -1.3, 2.7, 4, "-1 0 1 2"},
+		{"signed percent, one decimal dropped", -1.3, 2.7, 4, "-1 0 1 2"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
