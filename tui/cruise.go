@@ -123,7 +123,7 @@ func (s *cruiseScreen) render() {
 	nmT := func(sr float64) float64 { return sr / model.NauticalMile * 1000 }
 	who := "baseline polar"
 	if c.Tail != "" && !math.IsNaN(c.ExcessPct) {
-		who = fmt.Sprintf("%s's own polar: its recent level, drag %+.2f %% (%+.1f counts here)", clean(c.Tail), c.ExcessPct, c.excess(s.t)/model.DragCount)
+		who = fmt.Sprintf("%s's own polar: %s, drag %+.2f %% (%+.1f counts here)", clean(c.Tail), c.ExcessFrom, c.ExcessPct, c.excess(s.t)/model.DragCount)
 	}
 	title := truncate(s.st.Title.Render("Cruise")+s.st.Muted.Render(fmt.Sprintf("  %.1f t · FL%03.0f · ISA %+.0f °C · cost index %g kg/min",
 		c.Weight/1000, c.Altitude/model.Foot/100, c.ISADev, c.CostIndex)), s.w) + "\n" + s.st.Muted.Render(truncate(who, s.w))

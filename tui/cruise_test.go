@@ -3,6 +3,10 @@ package tui
 import (
 	"strings"
 	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
+
+	"dragdeck/model"
 )
 
 func TestCruiseKeys(t *testing.T) {
@@ -35,6 +39,30 @@ func TestCruiseOwnPolarIsTheTailsLevel(t *testing.T) {
 	}
 	if !strings.Contains(m.View(), "recent level") {
 		t.Errorf("the own polar's source is not named:\n%s", m.View())
+	}
+}
+
+// Under a replay, with no fleet and so no recent level, the own polar is
+// the current flight's median so far, and the Cruise screen says so.
+func TestCruiseOwnPolarUnderReplay(t *testing.T) {
+	d := demoFleet(t)
+	recs := d.Records[d.Fleet.Tails[0].Tail][:6]
+	m := New(t.Context(), nil, nil, WithReplay(d.Type, d.Config, recs, 0))
+	m.Update(tea.WindowSizeMsg{Width: 100, Height: 30})
+	m.flight.seek(3)
+	played, _ := m.flight.flightSpan()
+	var devs []float64
+	for _, i := range played {
+		if m.flight.left[i] == "" {
+			devs = append(devs, m.flight.points[i].DragDevPct)
+		}
+	}
+	m.activate(scrCruise)
+	if want := model.Median(devs); m.cruise.c.ExcessPct != want {
+		t.Errorf("own polar at %+.3f %%, the flight's median so far is %+.3f %%", m.cruise.c.ExcessPct, want)
+	}
+	if v := m.View(); !strings.Contains(v, "this flight so far") || strings.Contains(v, "recent level") {
+		t.Errorf("the own polar's source is misnamed:\n%s", v)
 	}
 }
 

@@ -40,13 +40,22 @@ type Condition struct {
 	Mach      float64
 	ISADev    float64 // K
 	CostIndex float64 // kg/min
-	ExcessPct float64 // the tail's recent drag deviation, %; NaN when unknown
+	ExcessPct float64 // the own polar's drag deviation, %; NaN when unknown
+	// ExcessFrom says where ExcessPct comes from ("its recent level", "this
+	// flight so far").
+	ExcessFrom string
 }
 
 // excess returns the condition's excess as an added drag coefficient.
 func (c Condition) excess(t *model.Type) float64 {
 	return model.ExcessFromDeviation(t, c.Weight, model.AirISA(c.Altitude, c.ISADev), c.Mach, c.ExcessPct)
 }
+
+// levelFrom and flightFrom name where an own polar's deviation comes from.
+const (
+	levelFrom  = "its recent level"
+	flightFrom = "this flight so far"
+)
 
 // defaultCondition is the cruise shown before any tail is chosen.
 func defaultCondition(t *model.Type) Condition {
@@ -61,7 +70,7 @@ func defaultCondition(t *model.Type) Condition {
 // snapshots, from the pipeline) with its recent level as its excess.
 func tailCondition(t *model.Type, a model.TailAssessment) Condition {
 	c := defaultCondition(t)
-	c.Tail, c.ExcessPct = a.Tail, a.RecentPct
+	c.Tail, c.ExcessPct, c.ExcessFrom = a.Tail, a.RecentPct, levelFrom
 	if ty := a.Typical; !math.IsNaN(ty.Weight) {
 		c.Weight, c.Altitude, c.Mach, c.ISADev = ty.Weight, ty.Altitude, ty.Mach, ty.ISADev
 	}

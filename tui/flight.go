@@ -168,15 +168,16 @@ func (s *flightScreen) update() {
 	s.optOK = false
 	r, _, ok := s.current()
 	if ok {
-		s.excessPct, s.ownFrom = s.level, "tail's recent level"
+		s.excessPct, s.ownFrom = s.level, levelFrom
 		if math.IsNaN(s.level) {
+			played, _ := s.flightSpan()
 			var devs []float64
-			for i := range s.pos {
+			for _, i := range played {
 				if s.left[i] == "" {
 					devs = append(devs, s.points[i].DragDevPct)
 				}
 			}
-			s.excessPct, s.ownFrom = model.Median(devs), "this flight so far"
+			s.excessPct, s.ownFrom = model.Median(devs), flightFrom
 		}
 		air := model.AirAt(r.Snap.Altitude, r.Snap.SAT)
 		excess := model.ExcessFromDeviation(s.t, r.Snap.Weight, air, r.Snap.Mach, s.excessPct)

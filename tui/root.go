@@ -216,7 +216,7 @@ func (m *Model) activate(i int) {
 			c := m.cond
 			c.Weight, c.Altitude, c.Mach = r.Snap.Weight, r.Snap.Altitude, r.Snap.Mach
 			c.ISADev = model.AirAt(r.Snap.Altitude, r.Snap.SAT).ISADev()
-			c.Tail, c.ExcessPct = r.Tail, m.flight.excessPct // the tail's recent level when known
+			c.Tail, c.ExcessPct, c.ExcessFrom = r.Tail, m.flight.excessPct, m.flight.ownFrom
 			m.cond = c
 		}
 		m.cruise.SetCondition(t, m.cond)
