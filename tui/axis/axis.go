@@ -30,9 +30,14 @@ func Step(span float64, n int) float64 {
 func Values(lo, hi float64, n int) []float64 {
 	step := Step(hi-lo, n)
 	var out []float64
-	for v := math.Ceil(lo/step-1e-9) * step; v <= hi+1e-9*step; v += step {
-		if math.Abs(v) < 1e-9*step {
-			v = 0
+	// Each value is k·step, rounded to the step's decimals, so that no
+	// error accumulates (0.1 + 0.2 is not 0.3).
+	dec := max(0, -int(math.Floor(math.Log10(step))))
+	scale := math.Pow(10, float64(dec))
+	for k := math.Ceil(lo/step - 1e-9); k*step <= hi+1e-9*step; k++ {
+		v := math.Round(k*step*scale) / scale
+		if v == 0 {
+			v = 0 // no negative zero
 		}
 		out = append(out, v)
 	}

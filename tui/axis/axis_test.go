@@ -41,6 +41,7 @@ func TestValues(t *testing.T) {
 		{"deviation bars", -0.8, 3.9, 5, "0 1 2 3"},
 		{"minutes", 0, 92, 6, "0 20 40 60 80"},
 		{"no negative zero", -0.3, 0.3, 3, "-0.2 0 0.2"},
+		{"tenths without float error", 0, 0.7, 8, "0 0.1 0.2 0.3 0.4 0.5 0.6 0.7"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
