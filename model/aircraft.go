@@ -28,6 +28,9 @@ type Type struct {
 	// MaxThrustPerDelta is the maximum cruise thrust of one engine divided
 	// by δ, N; zero when the type does not give it.
 	MaxThrustPerDelta float64
+	// Thrust gives an engine's thrust from its corrected fan speed; nil
+	// when the type has no table (thrust then comes from fuel flow).
+	Thrust *ThrustTable
 
 	MMO         float64 // maximum operating Mach
 	MaxAltitude float64 // certified ceiling, pressure altitude, m

@@ -70,3 +70,23 @@ func ExampleCruiseOptimum() {
 	// Mach: min drag 0.669, max range 0.758, long range 0.789
 	// SR 185.6 NM/t, optimum FL397, maximum FL403 (buffet)
 }
+
+// A thrust table gives one engine's net thrust per δ from the corrected fan
+// speed; between grid points it is bilinear.
+func ExampleThrustTable_At() {
+	tt, err := model.NewThrustTable(
+		[]float64{80, 90},   // N1k, %
+		[]float64{0.7, 0.8}, // Mach
+		[][]float64{{60000, 86000}, {58000, 83500}}) // N per δ, invented
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	f, ok := tt.At(85, 0.75)
+	fmt.Printf("F/δ = %.0f N, inside the table: %v\n", f, ok)
+	_, ok = tt.At(95, 0.75)
+	fmt.Println("at 95 % inside:", ok)
+	// Output:
+	// F/δ = 71875 N, inside the table: true
+	// at 95 % inside: false
+}

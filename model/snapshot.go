@@ -12,6 +12,7 @@ type Snapshot struct {
 	Bank     float64 // bank angle, rad (0 in wings-level flight)
 	VS       float64 // vertical speed, m/s (positive up)
 	Accel    float64 // rate of change of true airspeed, m/s²
+	N1       float64 // fan speed averaged over the engines, % of reference; 0 when not recorded
 }
 
 // LoadFactor is n = 1/cos φ in a level turn at bank φ (rad).
@@ -40,9 +41,21 @@ type Point struct {
 	FuelFlowExpected float64 // kg/s on the baseline polar
 	FuelFlowDevPct   float64 // 100 (FF − FF_expected) / FF_expected
 
-	Thrust float64 // from fuel flow, N
-	Drag   float64 // energy-corrected drag, N
-	TSFC   float64 // kg/(N·s)
+	Thrust float64 // net thrust of all engines, N: from fan speed when ThrustFromN1, else from fuel flow
+	// ThrustFromN1 is true when the thrust came from the fan speed and the
+	// type's thrust table; the drag deviation is then the airframe's alone.
+	ThrustFromN1 bool
+	// OutsideThrustTable is true when the snapshot has a fan speed and the
+	// type a table, but N1k or Mach lies outside its grid: the snapshot is
+	// not usable (its thrust fell back to fuel flow).
+	OutsideThrustTable bool
+	N1Corrected        float64 // N1k, %; NaN without a fan speed or a table
+	// EngineDevPct is 100 (FF / (TSFC_model · Fn) − 1): fuel burnt against
+	// the fuel the model needs for the thrust measured from the fan speed.
+	// NaN when the thrust came from fuel flow (unknown, never 0).
+	EngineDevPct float64
+	Drag         float64 // energy-corrected drag, N
+	TSFC         float64 // kg/(N·s)
 
 	TAS    float64 // true airspeed, m/s
 	ISADev float64 // K
@@ -54,7 +67,9 @@ type Point struct {
 // Analyze turns a snapshot into measured drag by the energy method and
 // compares it with the type's baseline polar (DESIGN.md §4.5):
 //
-//	T  = FF · g0 / TSFC                      (thrust from fuel flow; TSFC in kg/(N·s) here)
+//	T  = FF / TSFC                           (thrust from fuel flow; TSFC in kg/(N·s) here)
+//	T  = count · δ · F(N1k, M)               (instead, with a fan speed and a thrust table)
+//	engine dev = 100 (FF / (TSFC · T) − 1)   (only with thrust from the fan speed)
 //	D  = T − W g0 sinγ − W dV/dt,  sinγ = VS/TAS
 //	CD_measured = D/(q S),  ΔCD = CD_measured − CD_baseline
 //	FF_expected = TSFC · (CD_baseline q S + W g0 sinγ + W dV/dt)
@@ -75,6 +90,17 @@ func Analyze(t *Type, s Snapshot) Point {
 
 	p.TSFC = t.TSFC(s.Mach, p.Theta)
 	p.Thrust = s.FuelFlow / p.TSFC
+	p.N1Corrected, p.EngineDevPct = math.NaN(), math.NaN()
+	if s.N1 > 0 && t.Thrust != nil {
+		p.N1Corrected = CorrectedN1(s.N1, s.Mach, p.Theta)
+		if f, ok := t.Thrust.At(p.N1Corrected, s.Mach); ok {
+			p.Thrust = float64(t.EngineCount) * p.Delta * f
+			p.ThrustFromN1 = true
+			p.EngineDevPct = 100 * (s.FuelFlow/(p.TSFC*p.Thrust) - 1)
+		} else {
+			p.OutsideThrustTable = true
+		}
+	}
 	sinGamma := s.VS / p.TAS
 	energy := s.Weight*G0*sinGamma + s.Weight*s.Accel // N spent on climb and acceleration
 	p.Drag = p.Thrust - energy

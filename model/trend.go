@@ -18,6 +18,7 @@ type TrendPoint struct {
 	Bank             float64 // rad
 	VS               float64 // m/s
 	Accel            float64 // m/s²
+	OutsideTable     bool    // N1k or Mach outside the type's thrust table
 
 	// For the tail's own polar and its typical cruise (single precision is
 	// ample for both).
@@ -33,7 +34,7 @@ type TrendPoint struct {
 // time t in flight f.
 func NewTrendPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
 	return TrendPoint{Time: t, Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
-		Bank: s.Bank, VS: s.VS, Accel: s.Accel,
+		Bank: s.Bank, VS: s.VS, Accel: s.Accel, OutsideTable: p.OutsideThrustTable,
 		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
 		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
 }
@@ -113,17 +114,20 @@ func DefaultTrendConfig() TrendConfig {
 
 // Reasons a point is not usable for the trend.
 const (
+	ExcludeThrustTable = "outside the thrust table"
 	ExcludeImplausible = "deviation beyond the plausible limit"
 	ExcludeBank        = "bank beyond the limit"
 	ExcludeVS          = "vertical speed beyond the limit"
 	ExcludeAccel       = "acceleration beyond the limit"
 )
 
-// Usable reports why p cannot be used for the trend, or "" when it can:
-// |deviation| above MaxAbsDevPct, or bank, vertical speed or acceleration
+// Usable reports why p cannot be used for the trend, or "" when it can: a
+// fan speed outside the type's thrust table, |deviation| above MaxAbsDevPct, or bank, vertical speed or acceleration
 // beyond their limits (within them the energy method corrects for them).
 func (c *TrendConfig) Usable(p TrendPoint) string {
 	switch {
+	case p.OutsideTable:
+		return ExcludeThrustTable
 	case math.IsNaN(p.DevPct) || math.Abs(p.DevPct) > c.MaxAbsDevPct:
 		return ExcludeImplausible
 	case math.Abs(p.Bank) > c.MaxBank:
