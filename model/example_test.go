@@ -75,8 +75,8 @@ func ExampleCruiseOptimum() {
 // speed; between grid points it is bilinear.
 func ExampleThrustTable_At() {
 	tt, err := model.NewThrustTable(
-		[]float64{80, 90},   // N1k, %
-		[]float64{0.7, 0.8}, // Mach
+		[]float64{80, 90},                           // N1k, %
+		[]float64{0.7, 0.8},                         // Mach
 		[][]float64{{60000, 86000}, {58000, 83500}}) // N per δ, invented
 	if err != nil {
 		fmt.Println(err)

@@ -87,7 +87,7 @@ func TestCorrectedN1(t *testing.T) {
 func TestThrustFromFanSpeed(t *testing.T) {
 	ty := twin()
 	ty.Thrust = testThrust(t)
-	s := Snapshot{Weight: 64000, Altitude: 35000 * Foot, Mach: 0.78, }
+	s := Snapshot{Weight: 64000, Altitude: 35000 * Foot, Mach: 0.78}
 	s.SAT, _ = ISA(35000 * Foot)
 	air := AirAt(s.Altitude, s.SAT)
 	s.N1 = 88 * math.Sqrt(air.Theta()*(1+0.2*s.Mach*s.Mach)) // N1k = 88 %
