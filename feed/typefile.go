@@ -77,6 +77,13 @@ type typeFile struct {
 		MaxAltFt *float64 `toml:"max_alt_ft"`
 		CLBuffet *float64 `toml:"cl_buffet"`
 	} `toml:"limits"`
+	// Thrust is the optional thrust table: net thrust of one engine per δ
+	// from the corrected fan speed and Mach.
+	Thrust *struct {
+		N1Corrected []float64   `toml:"n1_corrected_pct"`
+		Mach        []float64   `toml:"mach"`
+		FnPerDelta  [][]float64 `toml:"fn_per_delta_n"`
+	} `toml:"thrust"`
 }
 
 // typeKeyKinds is what each key of a type file holds, for the error when a
@@ -87,6 +94,8 @@ var typeKeyKinds = map[string]string{
 	"wave.kappa_a": "a number", "wave.thickness_ratio": "a number", "wave.sweep_deg": "a number",
 	"engine.tsfc_a_per_h": "a number", "engine.tsfc_b_per_h": "a number", "engine.max_cruise_thrust_per_delta_n": "a number",
 	"limits.mmo": "a number", "limits.max_alt_ft": "a number", "limits.cl_buffet": "a number",
+	"thrust.n1_corrected_pct": "an array of numbers", "thrust.mach": "an array of numbers",
+	"thrust.fn_per_delta_n": "an array of arrays of numbers, one per Mach",
 }
 
 // ParseType decodes and validates a type file; name is used in errors.
@@ -175,6 +184,29 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 		}
 		t.MaxThrustPerDelta = *v
 	}
+	if th := f.Thrust; th != nil {
+		var missing []string
+		for _, k := range []struct {
+			key string
+			set bool
+		}{{"thrust.n1_corrected_pct", th.N1Corrected != nil}, {"thrust.mach", th.Mach != nil}, {"thrust.fn_per_delta_n", th.FnPerDelta != nil}} {
+			if !k.set {
+				missing = append(missing, k.key)
+			}
+		}
+		if len(missing) > 0 {
+			return nil, fmt.Errorf("%s: %s: missing (required in a [thrust] table)", name, strings.Join(missing, ", "))
+		}
+		tt, err := model.NewThrustTable(th.N1Corrected, th.Mach, th.FnPerDelta)
+		if err != nil {
+			var fe *model.FieldError
+			if errors.As(err, &fe) {
+				return nil, fmt.Errorf("%s: %w", at(fe.Key), err)
+			}
+			return nil, fmt.Errorf("%s: %w", name, err)
+		}
+		t.Thrust = tt
+	}
 	if err := t.Validate(); err != nil {
 		var fe *model.FieldError
 		if errors.As(err, &fe) {
@@ -196,8 +228,13 @@ func keyLines(data []byte) map[string]int {
 	for p.NextExpression() {
 		e := p.Expression()
 		var key []string
+		keyLine := 0
 		for it := e.Key(); it.Next(); {
-			key = append(key, string(it.Node().Data))
+			n := it.Node()
+			key = append(key, string(n.Data))
+			if keyLine == 0 && n.Raw.Length > 0 {
+				keyLine = p.Shape(n.Raw).Start.Line
+			}
 		}
 		switch e.Kind {
 		case unstable.Table, unstable.ArrayTable:
@@ -206,6 +243,8 @@ func keyLines(data []byte) map[string]int {
 			full := strings.Join(append(append([]string{}, table...), key...), ".")
 			if v := e.Value(); v != nil && v.Raw.Length > 0 {
 				out[full] = p.Shape(v.Raw).Start.Line
+			} else if keyLine > 0 { // arrays and inline tables: the key's line
+				out[full] = keyLine
 			}
 		}
 	}
@@ -226,5 +265,19 @@ func FormatType(t *model.Type) []byte {
 		fmt.Fprintf(&b, "max_cruise_thrust_per_delta_n = %s\n", f(t.MaxThrustPerDelta))
 	}
 	fmt.Fprintf(&b, "\n[limits]\nmmo = %s\nmax_alt_ft = %s\ncl_buffet = %s\n", f(t.MMO), f(t.MaxAltitude/model.Foot), f(t.CLBuffet))
+	if tt := t.Thrust; tt != nil {
+		list := func(v []float64) string {
+			s := make([]string, len(v))
+			for i, x := range v {
+				s[i] = f(x)
+			}
+			return "[" + strings.Join(s, ", ") + "]"
+		}
+		fmt.Fprintf(&b, "\n[thrust]\nn1_corrected_pct = %s\nmach = %s\nfn_per_delta_n = [\n", list(tt.N1), list(tt.Mach))
+		for _, row := range tt.PerDelta {
+			fmt.Fprintf(&b, "  %s,\n", list(row))
+		}
+		b.WriteString("]\n")
+	}
 	return b.Bytes()
 }

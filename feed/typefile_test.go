@@ -3,6 +3,7 @@ package feed
 import (
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -120,6 +121,53 @@ func TestLoadTypeFile(t *testing.T) {
 
 // FormatType and ParseType are inverses (TOML strings are quoted by Go's
 // rules, which TOML accepts for plain text).
+// thrustTOML is an invented [thrust] table (integers where the file may
+// write them so).
+const thrustTOML = `
+[thrust]
+n1_corrected_pct = [70, 80, 90, 100]
+mach = [0.6, 0.7, 0.8, 0.9]
+fn_per_delta_n = [
+  [40000, 62000, 88000, 118000],
+  [38000, 60000, 86000, 115000],
+  [36500, 58000, 83500, 112000],
+  [35000, 56000, 81000, 109000],
+]
+`
+
+func TestParseTypeThrust(t *testing.T) {
+	demo := string(DemoTypeTOML())
+	ty, err := ParseType("x.toml", []byte(demo+thrustTOML))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if f, ok := ty.Thrust.At(85, 0.75); !ok || f != (60000+86000+58000+83500)/4.0 {
+		t.Errorf("At(85, 0.75) = %g, %v", f, ok)
+	}
+	if DemoType().Thrust != nil {
+		t.Error("a type without [thrust] has a table")
+	}
+	tests := []struct {
+		name, toml, want string
+	}{
+		{"row too short names key and line", strings.Replace(thrustTOML, "[36500, 58000, 83500, 112000]", "[36500, 58000, 83500]", 1),
+			"x.toml:38: thrust.fn_per_delta_n: row 3 (Mach 0.8) has 3 values, the N1 grid 4"},
+		{"grid not ascending", strings.Replace(thrustTOML, "[0.6, 0.7, 0.8, 0.9]", "[0.6, 0.8, 0.7, 0.9]", 1), "x.toml:37: thrust.mach: must be strictly ascending"},
+		{"falls with N1", strings.Replace(thrustTOML, "[35000, 56000, 81000, 109000]", "[35000, 56000, 51000, 109000]", 1), "thrust.fn_per_delta_n: row 4 (Mach 0.9) must rise with N1"},
+		{"a key missing", strings.Replace(thrustTOML, "mach = [0.6, 0.7, 0.8, 0.9]\n", "", 1), "x.toml: thrust.mach: missing (required in a [thrust] table)"},
+		{"not an array", strings.Replace(thrustTOML, "[70, 80, 90, 100]", `"70-100"`, 1), "thrust.n1_corrected_pct: must be an array of numbers"},
+		{"unknown key", thrustTOML + "n2 = [1, 2]\n", "thrust.n2: unknown key"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := ParseType("x.toml", []byte(demo+tc.toml))
+			if err == nil || !strings.Contains(err.Error(), tc.want) {
+				t.Fatalf("error %v, want it to contain %q", err, tc.want)
+			}
+		})
+	}
+}
+
 func TestFormatTypeRoundTrip(t *testing.T) {
 	for _, path := range []string{"", "../testdata/types/widebody.toml"} {
 		ty, err := LoadType(path)
@@ -142,12 +190,22 @@ func TestFormatTypeRoundTrip(t *testing.T) {
 			t.Errorf("%s: %+v", path, back)
 		}
 	}
+	ty, err := ParseType("x.toml", append(DemoTypeTOML(), thrustTOML...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	back, err := ParseType("formatted", FormatType(ty))
+	if err != nil || back.Thrust == nil || !reflect.DeepEqual(back.Thrust.PerDelta, ty.Thrust.PerDelta) ||
+		!reflect.DeepEqual(back.Thrust.N1, ty.Thrust.N1) || !reflect.DeepEqual(back.Thrust.Mach, ty.Thrust.Mach) {
+		t.Errorf("thrust table did not come back: %v\n%s", err, FormatType(ty))
+	}
 }
 
 // FuzzParseType: any bytes give a type or an error, never a panic, and a
 // type that parses is valid. Run with 'go test ./feed -fuzz FuzzParseType'.
 func FuzzParseType(f *testing.F) {
 	f.Add(DemoTypeTOML())
+	f.Add(append(DemoTypeTOML(), thrustTOML...))
 	f.Add([]byte(""))
 	f.Add([]byte("[limits\n"))
 	f.Add([]byte("name = 3\n[wing]\narea_m2 = \"x\"\n"))
