@@ -20,6 +20,7 @@ const (
 	colBank
 	colVS
 	colAccel
+	colN1
 	numColumns
 )
 
@@ -43,7 +44,7 @@ var knownColumns = map[string]column{
 	"mach":   colMach,
 	unitKgph: colFuelFlow, unitLbph: colFuelFlow,
 	unitSAT: colTemp, unitTAT: colTemp,
-	"bank_deg": colBank, "vs_fpm": colVS, "accel_kt_per_min": colAccel,
+	"bank_deg": colBank, "vs_fpm": colVS, "accel_kt_per_min": colAccel, "n1_pct": colN1,
 }
 
 // requiredColumns names, for each required column, how to ask for it.
@@ -80,7 +81,7 @@ func (h *header) fieldName(i int) string {
 // acceptedColumns lists the column names a snapshot file may have, for
 // messages.
 const acceptedColumns = "time, tail, flight, weight_kg|weight_lb, alt_ft|alt_m, mach, fuel_flow_kgph|fuel_flow_lbph, " +
-	"sat_c|tat_c, bank_deg, vs_fpm, accel_kt_per_min"
+	"sat_c|tat_c, bank_deg, vs_fpm, accel_kt_per_min, n1_pct"
 
 // eventsHeader is parseHeader's answer for the header of an events file
 // (time,tail,kind,note; DESIGN.md §3.3), which a folder may hold beside the

@@ -255,6 +255,10 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	s.Bank = RadFromDeg(v[colBank])
 	s.VS = MPerSFromFtPerMin(v[colVS])
 	s.Accel = MPerS2FromKtPerMin(v[colAccel])
+	s.N1 = v[colN1] // % stays %; an empty field is 0, "not recorded"
+	if h.idx[colN1] >= 0 && s.N1 == 0 && len(f(colN1)) > 0 {
+		return d.reject(n, h.name[colN1], ErrRange, fmt.Sprintf("fan speed must be in (0, %g] %%, got 0 %% (leave the field empty when it is not recorded)", MaxN1Pct))
+	}
 	if e := CheckSnapshot(*s); e != nil {
 		col := h.name[fieldColumn[e.Field]]
 		switch {
@@ -273,7 +277,7 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 // fieldColumn maps a validated field to its column.
 var fieldColumn = map[Field]column{
 	FieldWeight: colWeight, FieldAltitude: colAlt, FieldMach: colMach, FieldFuelFlow: colFuelFlow,
-	FieldSAT: colTemp, FieldBank: colBank, FieldVS: colVS, FieldAccel: colAccel,
+	FieldSAT: colTemp, FieldBank: colBank, FieldVS: colVS, FieldAccel: colAccel, FieldN1: colN1,
 }
 
 // intern returns the one shared string for b.

@@ -192,6 +192,36 @@ func TestReaderEdges(t *testing.T) {
 	}
 }
 
+// The n1_pct column: a value is kept in %, an empty field means "not
+// recorded" (0), an explicit 0 and values beyond 130 % are rejected naming
+// the column.
+func TestN1Column(t *testing.T) {
+	data := "time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,n1_pct\n" +
+		"2026-03-01T10:22:00Z,DD101,65000,35000,0.78,-54.3,2380,86.5\n" +
+		"2026-03-01T10:42:00Z,DD101,65000,35000,0.78,-54.3,2380,\n" +
+		"2026-03-01T11:02:00Z,DD101,65000,35000,0.78,-54.3,2380,0\n" +
+		"2026-03-01T11:22:00Z,DD101,65000,35000,0.78,-54.3,2380,131\n"
+	recs, rejects, st, err := readAll(t, "n1.csv", data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 2 || recs[0].Snap.N1 != 86.5 || recs[1].Snap.N1 != 0 || st.Read != st.Accepted+st.Rejected {
+		t.Fatalf("records %+v, stats %+v", recs, st)
+	}
+	if len(rejects) != 2 {
+		t.Fatalf("rejects %v", rejects)
+	}
+	for i, want := range []struct {
+		line int
+		text string
+	}{{4, "got 0 %"}, {5, "got 131 %"}} {
+		r := rejects[i]
+		if r.Line != want.line || r.Column != "n1_pct" || !errors.Is(r, ErrRange) || !strings.Contains(r.Error(), want.text) {
+			t.Errorf("reject %d: %v (line %d, column %q), want line %d with %q", i, r, r.Line, r.Column, want.line, want.text)
+		}
+	}
+}
+
 func TestUnknownColumns(t *testing.T) {
 	r := NewReader(strings.NewReader("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,Remarks,gear\n"+goodRow[:len(goodRow)-1]+",a,b\n"), "x.csv")
 	if _, err := r.Next(); err != nil {

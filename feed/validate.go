@@ -23,6 +23,7 @@ const (
 	FieldBank     Field = "bank_deg"
 	FieldVS       Field = "vs_fpm"
 	FieldAccel    Field = "accel_kt_per_min"
+	FieldN1       Field = "n1_pct"
 )
 
 // Limits of a usable snapshot. Altitude and temperature are those of the
@@ -38,6 +39,7 @@ const (
 	MaxFuelFlowKgph  = 1e5   // all engines
 	MinMach          = 0.05  // below it the dynamic pressure is too small to analyse
 	MaxAccelKtPerMin = 100.0 // |rate of change of true airspeed|
+	MaxN1Pct         = 130.0 // fan speed, % of the reference speed
 )
 
 const notFinite = "not a finite number"
@@ -59,7 +61,8 @@ func (e *SnapshotError) Unwrap() error { return e.Err }
 // outside [0.05, 1), pressure altitude outside −1,000 … 65,000 ft, SAT
 // outside −100 … +60 °C, fuel flow outside (0, 100,000 kg/h], |bank| ≥ 90°,
 // |vertical speed| ≥ true airspeed (sin γ would exceed 1), |acceleration|
-// > 100 kt/min.
+// > 100 kt/min, fan speed N1 outside (0, 130] % (0 itself means "not
+// recorded").
 func CheckSnapshot(s model.Snapshot) *SnapshotError {
 	bad := func(f Field, format string, args ...any) *SnapshotError {
 		kind := ErrRange
@@ -109,6 +112,10 @@ func CheckSnapshot(s model.Snapshot) *SnapshotError {
 		return bad(FieldAccel, notFinite)
 	case math.Abs(s.Accel) > MaxAccelKtPerMin*model.Knot/model.Minute:
 		return bad(FieldAccel, "|acceleration| %s kt/min is above the plausible %g kt/min", short(math.Abs(s.Accel)/model.Knot*model.Minute), MaxAccelKtPerMin)
+	case !finite(s.N1):
+		return bad(FieldN1, notFinite)
+	case s.N1 < 0 || s.N1 > MaxN1Pct:
+		return bad(FieldN1, "fan speed must be in (0, %g] %%, got %s %%", MaxN1Pct, short(s.N1))
 	}
 	return nil
 }

@@ -35,6 +35,11 @@ func TestCheckSnapshot(t *testing.T) {
 		{"bank -95", func(s *model.Snapshot) { s.Bank = RadFromDeg(-95) }, FieldBank},
 		{"vs NaN", func(s *model.Snapshot) { s.VS = math.NaN() }, FieldVS},
 		{"accel Inf", func(s *model.Snapshot) { s.Accel = math.Inf(-1) }, FieldAccel},
+		{"N1 not recorded", func(s *model.Snapshot) { s.N1 = 0 }, ""},
+		{"N1 at 130 %", func(s *model.Snapshot) { s.N1 = 130 }, ""},
+		{"N1 above 130 %", func(s *model.Snapshot) { s.N1 = 130.5 }, FieldN1},
+		{"N1 negative", func(s *model.Snapshot) { s.N1 = -1 }, FieldN1},
+		{"N1 NaN", func(s *model.Snapshot) { s.N1 = math.NaN() }, FieldN1},
 		// sin γ = VS/TAS must stay below 1: at M0.78, FL350 and ISA−0 TAS is
 		// about 449 kt = 45,500 ft/min.
 		{"vs above TAS", func(s *model.Snapshot) { s.VS = MPerSFromFtPerMin(50000) }, FieldVS},

@@ -27,6 +27,9 @@ func (p Point) Warnings(t *Type) []string {
 	if BuffetMargin*p.CL > t.CLBuffet {
 		w = append(w, fmt.Sprintf("CL %.3f is beyond the 1.3 g buffet margin (CL ≤ %.3f at 1 g): check weight, altitude and Mach", p.CL, t.CLBuffet/BuffetMargin))
 	}
+	if p.OutsideThrustTable {
+		w = append(w, fmt.Sprintf("corrected fan speed N1k %.1f %% at this Mach is outside the type's thrust table: thrust from fuel flow, and the trend leaves such a snapshot out", p.N1Corrected))
+	}
 	if p.CDParasiteMeasured < 0 {
 		w = append(w, fmt.Sprintf("measured parasite drag %.5f is negative: the thrust does not cover the induced and wave drag (is the fuel flow that of all engines, in the right unit?)", p.CDParasiteMeasured))
 	}

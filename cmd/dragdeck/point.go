@@ -33,6 +33,19 @@ type pointJSON struct {
 	Delta                float64 `json:"delta"`
 	Theta                float64 `json:"theta"`
 	QPa                  float64 `json:"q_pa"`
+	// ThrustSource is "fan speed" or "fuel flow"; with fuel flow the drag
+	// includes engine effects and the engine deviation is null.
+	ThrustSource       string   `json:"thrust_source"`
+	N1CorrectedPct     *float64 `json:"n1_corrected_pct"`
+	EngineDeviationPct *float64 `json:"engine_deviation_pct"`
+}
+
+// thrustSource names where a point's thrust came from.
+func thrustSource(p model.Point) string {
+	if p.ThrustFromN1 {
+		return "fan speed"
+	}
+	return "fuel flow"
 }
 
 func newPointJSON(p model.Point) pointJSON {
@@ -45,15 +58,20 @@ func newPointJSON(p model.Point) pointJSON {
 		ThrustN: p.Thrust, DragN: p.Drag, LoadFactor: p.LoadFactor,
 		TASKt: p.TAS / model.Knot, ISADevC: p.ISADev,
 		Delta: p.Delta, Theta: p.Theta, QPa: p.Q,
+		ThrustSource: thrustSource(p), N1CorrectedPct: num(p.N1Corrected), EngineDeviationPct: num(p.EngineDevPct),
 	}
 }
 
 func runPoint(e *env, args []string) error {
 	fs := newFlagSet("point",
-		"dragdeck point [--type FILE] --weight-kg W --alt-ft H --mach M --fuel-flow-kgph F --sat-c C [--bank-deg B] [--vs-fpm V] [--accel-kt-per-min A] [--json]",
+		"dragdeck point [--type FILE] --weight-kg W --alt-ft H --mach M --fuel-flow-kgph F --sat-c C [--bank-deg B] [--vs-fpm V] [--accel-kt-per-min A] [--n1-pct N] [--json]",
 		`Analyses one cruise snapshot against the type's baseline drag polar.
-Thrust comes from fuel flow through TSFC = (a + b M) sqrt(theta); drag is thrust
-less the climb and acceleration terms (energy method). The measured drag
+Thrust comes from fuel flow through TSFC = (a + b M) sqrt(theta), so the drag
+includes engine effects; with --n1-pct and a type file with a [thrust] table it
+comes from the fan speed instead (corrected N1k = N1/sqrt(theta_t2), thrust =
+count x delta x F(N1k, M)) and the engine deviation 100 (FF/(TSFC Fn) - 1) is
+given apart from the airframe's. Drag is thrust less the climb and
+acceleration terms (energy method). The measured drag
 coefficient is split into induced (k CL^2), wave (Korn + Lock) and parasite
 parts; the excess over the baseline is given in drag counts (0.0001) and in %.
 A vertical speed at or above the true airspeed is refused. A lift coefficient
@@ -70,6 +88,7 @@ the JSON "warnings".`,
 	bank := fs.float("bank-deg", "B", 0, false, "bank angle, degrees")
 	vs := fs.float("vs-fpm", "V", 0, false, "vertical speed, ft/min (climb positive)")
 	acc := fs.float("accel-kt-per-min", "A", 0, false, "rate of change of true airspeed, kt/min")
+	n1 := fs.float("n1-pct", "N", 0, false, "fan speed N1 averaged over the engines, % of reference (0: not recorded)")
 	asJSON := fs.jsonFlag()
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
@@ -87,12 +106,16 @@ the JSON "warnings".`,
 		Bank:     feed.RadFromDeg(*bank),
 		VS:       feed.MPerSFromFtPerMin(*vs),
 		Accel:    feed.MPerS2FromKtPerMin(*acc),
+		N1:       *n1,
 	}
 	if bad := feed.CheckSnapshot(s); bad != nil {
 		return flagError(bad)
 	}
 	p := model.Analyze(t, s)
 	warnings := p.Warnings(t)
+	if s.N1 > 0 && t.Thrust == nil {
+		warnings = append(warnings, "the type file has no [thrust] table: thrust from fuel flow, so the drag includes engine effects")
+	}
 	for _, w := range warnings {
 		fmt.Fprintf(e.stderr, "dragdeck point: warning: %s\n", w)
 	}
@@ -144,6 +167,12 @@ func writePointTable(w io.Writer, t *model.Type, s model.Snapshot, p model.Point
 	fmt.Fprintf(w, "\nexcess drag       %+.1f counts (%+.2f %% of baseline drag)\n", p.ExcessCounts, p.DragDevPct)
 	fmt.Fprintf(w, "fuel flow         %.0f kg/h, expected %.0f kg/h (%+.2f %%)\n", s.FuelFlow*model.Hour, p.FuelFlowExpected*model.Hour, p.FuelFlowDevPct)
 	fmt.Fprintf(w, "thrust / drag     %.0f N / %.0f N\n", p.Thrust, p.Drag)
+	if p.ThrustFromN1 {
+		fmt.Fprintf(w, "thrust from       fan speed, N1k %.1f %%: the drag deviation is the airframe's\n", p.N1Corrected)
+		fmt.Fprintf(w, "engine deviation  %+.2f %% (fuel burnt against the fuel the model needs for that thrust)\n", p.EngineDevPct)
+	} else {
+		fmt.Fprintf(w, "thrust from       fuel flow: the drag includes engine effects; engine deviation unknown\n")
+	}
 	fmt.Fprintf(w, "lift coefficient  %.4f\n", p.CL)
 	fmt.Fprintf(w, "air               TAS %.1f kt, q %.0f Pa, delta %.4f, theta %.4f\n\n", p.TAS/model.Knot, p.Q, p.Delta, p.Theta)
 	fmt.Fprintln(w, caution)

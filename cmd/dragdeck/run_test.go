@@ -256,6 +256,58 @@ func TestPointWarnings(t *testing.T) {
 	}
 }
 
+// point --n1-pct with a type that has a thrust table: thrust from the fan
+// speed, the engine deviation apart; a meter reading 2 % high moves the
+// engine deviation by that factor and leaves the airframe deviation as it
+// was (the DESIGN.md §7 check, end to end). Without N1 the engine
+// deviation and N1k are null, never 0.
+func TestPointN1(t *testing.T) {
+	base := []string{"point", "--type", "../../testdata/types/twin_thrust.toml", "--weight-kg", "65000", "--alt-ft", "35000",
+		"--sat-c", "-54", "--mach", "0.78", "--json"}
+	type pj struct {
+		Source   string   `json:"thrust_source"`
+		N1k      *float64 `json:"n1_corrected_pct"`
+		Engine   *float64 `json:"engine_deviation_pct"`
+		Airframe float64  `json:"drag_deviation_pct"`
+	}
+	get := func(args ...string) pj {
+		t.Helper()
+		code, out, errs := runArgs(append(append([]string{}, base...), args...)...)
+		var j pj
+		if code != 0 || json.Unmarshal([]byte(out), &j) != nil {
+			t.Fatalf("%v: exit %d %s\n%s", args, code, errs, out)
+		}
+		return j
+	}
+	a := get("--fuel-flow-kgph", "2400", "--n1-pct", "83.5")
+	b := get("--fuel-flow-kgph", "2448", "--n1-pct", "83.5")
+	if a.Source != "fan speed" || a.N1k == nil || a.Engine == nil || b.Engine == nil {
+		t.Fatalf("with N1: %+v", a)
+	}
+	if got := (1 + *b.Engine/100) / (1 + *a.Engine/100); math.Abs(got-1.02) > 1e-9 {
+		t.Errorf("a 2 %% meter bias moves (1 + engine dev) by %g, want 1.02", got)
+	}
+	if a.Airframe != b.Airframe {
+		t.Errorf("airframe deviation moved with the meter: %g → %g", a.Airframe, b.Airframe)
+	}
+	c := get("--fuel-flow-kgph", "2400")
+	if c.Source != "fuel flow" || c.N1k != nil || c.Engine != nil {
+		t.Errorf("without N1: %+v", c)
+	}
+	code, _, errs := runArgs("point", "--weight-kg", "65000", "--alt-ft", "35000", "--sat-c", "-54", "--mach", "0.78", "--fuel-flow-kgph", "2400", "--n1-pct", "83.5")
+	if code != 0 || !strings.Contains(errs, "no [thrust] table") {
+		t.Errorf("N1 with the demo type (no table): exit %d, stderr %q", code, errs)
+	}
+	code, _, errs = runArgs(append(append([]string{}, base...), "--fuel-flow-kgph", "2400", "--n1-pct", "140")...)
+	if code != exitUsage || !strings.Contains(errs, "--n1-pct") {
+		t.Errorf("N1 of 140 %%: exit %d, stderr %q", code, errs)
+	}
+	code, _, errs = runArgs(append(append([]string{}, base...), "--fuel-flow-kgph", "2400", "--n1-pct", "50")...)
+	if code != 0 || !strings.Contains(errs, "outside the type's thrust table") {
+		t.Errorf("N1 below the table: exit %d, stderr %q", code, errs)
+	}
+}
+
 // bank marks the rows beyond buffet, as the Turns screen does.
 func TestBankMarksBuffet(t *testing.T) {
 	_, out, _ := runArgs("bank", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78")
