@@ -71,9 +71,9 @@ includes engine effects; with --n1-pct and a type file with a [thrust] table it
 comes from the fan speed instead (corrected N1k = N1/sqrt(theta_t2), thrust =
 count x delta x F(N1k, M)) and the engine deviation 100 (FF/(TSFC Fn) - 1) is
 given apart from the airframe's. Drag is thrust less the climb and
-acceleration terms (energy method). The measured drag
-coefficient is split into induced (k CL^2), wave (Korn + Lock) and parasite
-parts; the excess over the baseline is given in drag counts (0.0001) and in %.
+acceleration terms (energy method). The measured drag coefficient is split
+into induced (k CL^2), wave (Korn + Lock) and parasite parts; the excess over
+the baseline is given in drag counts (0.0001) and in %.
 A vertical speed at or above the true airspeed is refused. A lift coefficient
 beyond the 1.3 g buffet margin, or a negative parasite drag (thrust that does
 not cover induced and wave drag), is warned about on stderr and listed in
