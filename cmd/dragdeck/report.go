@@ -36,7 +36,10 @@ type fleetJSON struct {
 }
 
 type tailJSON struct {
-	Tail                string         `json:"tail"`
+	Tail string `json:"tail"`
+	// ThrustSource is "fan speed" when the tail has an engine series, else
+	// "fuel flow" (the drag then includes engine effects).
+	ThrustSource        string         `json:"thrust_source"`
 	Points              int            `json:"points"`
 	Flights             int            `json:"flights"`
 	First               string         `json:"first"`
@@ -51,6 +54,34 @@ type tailJSON struct {
 	NoLevel             string         `json:"no_level_reason,omitempty"` // why deviation_pct is null
 	MoneyPerYear        *float64       `json:"money_per_year,omitempty"`
 	Excluded            map[string]int `json:"excluded"`
+	// Engine is the tail's engine series; null without thrust from fan speed.
+	Engine *engineJSON `json:"engine"`
+}
+
+// engineJSON is a tail's engine series: engine deviation, %, trended and
+// flagged like the airframe's.
+type engineJSON struct {
+	DeviationPct        *float64   `json:"deviation_pct"`
+	DriftPctPer100d     *float64   `json:"drift_pct_per_100d"`
+	DriftCI95PctPer100d []*float64 `json:"drift_ci95_pct_per_100d"`
+	Steps               []stepJSON `json:"steps"`
+	Flags               []string   `json:"flags"`
+}
+
+func newEngineJSON(a model.TailAssessment) *engineJSON {
+	j := &engineJSON{DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope), Steps: stepsJSON(a.Steps), Flags: a.Flags}
+	if j.DriftPctPer100d != nil {
+		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
+	}
+	return j
+}
+
+func stepsJSON(steps []model.Step) []stepJSON {
+	out := []stepJSON{}
+	for _, s := range steps {
+		out = append(out, stepJSON{Date: s.Time.UTC().Format(time.DateOnly), SizePct: s.SizePct, SEPct: s.SE, Event: eventText(s.Event)})
+	}
+	return out
 }
 
 type stepJSON struct {
@@ -85,19 +116,19 @@ func eventText(e *model.Event) string {
 	return e.Kind + ": " + e.Note
 }
 
-func newTailJSON(a model.TailAssessment, price float64) tailJSON {
+func newTailJSON(a model.TailAssessment, engine *model.TailAssessment, price float64) tailJSON {
 	j := tailJSON{
-		Tail: a.Tail, Points: a.Points, Flights: len(a.Flights),
+		Tail: a.Tail, ThrustSource: "fuel flow", Points: a.Points, Flights: len(a.Flights),
 		First: timeOrEmpty(a.First), Last: timeOrEmpty(a.Last),
 		DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope),
-		Steps: []stepJSON{}, Flags: a.Flags,
+		Steps: stepsJSON(a.Steps), Flags: a.Flags,
 		ExcessFuelKgPerYear: num(a.ExcessFuel), CO2TPerYear: num(a.CO2 / 1000), Excluded: a.Excluded, NoLevel: a.Why(),
 	}
 	if j.DriftPctPer100d != nil {
 		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
 	}
-	for _, s := range a.Steps {
-		j.Steps = append(j.Steps, stepJSON{Date: s.Time.UTC().Format(time.DateOnly), SizePct: s.SizePct, SEPct: s.SE, Event: eventText(s.Event)})
+	if engine != nil {
+		j.ThrustSource, j.Engine = "fan speed", newEngineJSON(*engine)
 	}
 	if price > 0 {
 		j.MoneyPerYear = num(a.Money)
@@ -266,7 +297,11 @@ func writeReportJSON(w io.Writer, r *pipeline.Result) error {
 		Settings: map[string]any{"type": t.Name, "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
 	for _, a := range f.Tails {
-		j.Tails = append(j.Tails, newTailJSON(a, c.FuelPrice))
+		var engine *model.TailAssessment
+		if e, ok := r.EngineTail(a.Tail); ok {
+			engine = &e
+		}
+		j.Tails = append(j.Tails, newTailJSON(a, engine, c.FuelPrice))
 	}
 	return writeJSON(w, j)
 }

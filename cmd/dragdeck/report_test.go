@@ -277,3 +277,56 @@ func TestReportRejectsNotAnInput(t *testing.T) {
 		t.Error("the input file was changed")
 	}
 }
+
+// A tail with fan speed (and a type with a thrust table) has thrust from
+// fan speed and an engine series in the JSON; a tail without has thrust
+// from fuel flow and "engine": null.
+func TestReportEngineSeries(t *testing.T) {
+	dir := t.TempDir()
+	var b strings.Builder
+	b.WriteString("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,n1_pct\n")
+	for d := 0; d < 28; d++ {
+		fmt.Fprintf(&b, "2026-03-%02dT10:00:00Z,FAN,F%d,65000,35000,0.78,-54,2400,83.5\n", 1+d, d)
+		fmt.Fprintf(&b, "2026-03-%02dT11:00:00Z,FUEL,G%d,65000,35000,0.78,-54,2400,\n", 1+d, d)
+	}
+	p := filepath.Join(dir, "n1.csv")
+	os.WriteFile(p, []byte(b.String()), 0o644)
+	code, out, errs := runArgs("report", "--type", "../../testdata/types/twin_thrust.toml", "--format", "json", p)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var raw struct {
+		Tails []map[string]any `json:"tails"`
+	}
+	if err := json.Unmarshal([]byte(out), &raw); err != nil || len(raw.Tails) != 2 {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	// Every FAN snapshot is the same, so its engine level is the engine
+	// deviation that point gives for that snapshot.
+	_, pout, _ := runArgs("point", "--type", "../../testdata/types/twin_thrust.toml", "--weight-kg", "65000", "--alt-ft", "35000",
+		"--mach", "0.78", "--sat-c", "-54", "--fuel-flow-kgph", "2400", "--n1-pct", "83.5", "--json")
+	var pj struct {
+		Engine float64 `json:"engine_deviation_pct"`
+	}
+	if err := json.Unmarshal([]byte(pout), &pj); err != nil {
+		t.Fatal(err)
+	}
+	for _, tail := range raw.Tails {
+		engine, has := tail["engine"]
+		if !has {
+			t.Fatalf("%v: no engine field", tail["tail"])
+		}
+		switch tail["tail"] {
+		case "FAN":
+			e, _ := engine.(map[string]any)
+			dev, _ := e["deviation_pct"].(float64)
+			if tail["thrust_source"] != "fan speed" || e == nil || math.Abs(dev-pj.Engine) > 1e-9 {
+				t.Errorf("FAN: thrust_source %v, engine %v, want deviation %g as point gives", tail["thrust_source"], engine, pj.Engine)
+			}
+		case "FUEL":
+			if tail["thrust_source"] != "fuel flow" || engine != nil {
+				t.Errorf("FUEL: thrust_source %v, engine %v", tail["thrust_source"], engine)
+			}
+		}
+	}
+}

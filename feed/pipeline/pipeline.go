@@ -36,8 +36,13 @@ type Input struct {
 type Result struct {
 	Type   *model.Type
 	Config model.TrendConfig
-	Fleet  model.Fleet                   // every tail, most severe first
+	Fleet  model.Fleet                   // every tail's airframe series, most severe first
 	Points map[string][]model.TrendPoint // analysed snapshots by tail, in time order
+	// Engine is the engine series (DevPct is the engine deviation) of the
+	// tails whose snapshots had thrust from fan speed, assessed like the
+	// airframe's; EnginePoints holds its points by tail, in time order.
+	Engine       model.Fleet
+	EnginePoints map[string][]model.TrendPoint
 	// Records are the accepted records by tail in time order, when
 	// Input.KeepRecords is set.
 	Records     map[string][]feed.Record
@@ -57,6 +62,17 @@ func (r *Result) Failed() []feed.FileResult {
 		}
 	}
 	return out
+}
+
+// EngineTail returns the engine series of one tail; false when none of its
+// snapshots had thrust from fan speed.
+func (r *Result) EngineTail(name string) (model.TailAssessment, bool) {
+	for _, a := range r.Engine.Tails {
+		if a.Tail == name {
+			return a, true
+		}
+	}
+	return model.TailAssessment{}, false
 }
 
 // Tail returns the assessment of one tail.
@@ -179,7 +195,7 @@ func FromRecords(recs []feed.Record, st feed.Stats, in Input) *Result {
 }
 
 func newResult(in Input, files int) *Result {
-	r := &Result{Type: in.Type, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
+	r := &Result{Type: in.Type, Config: in.Config, Points: map[string][]model.TrendPoint{}, EnginePoints: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -192,7 +208,12 @@ func (r *Result) add(in Input, rec feed.Record) {
 		return
 	}
 	p := model.Analyze(in.Type, rec.Snap)
-	r.Points[rec.Tail] = append(r.Points[rec.Tail], model.NewTrendPoint(rec.Time, rec.Flight, rec.Snap, p))
+	tp := model.NewTrendPoint(rec.Time, rec.Flight, rec.Snap, p)
+	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
+	if p.ThrustFromN1 {
+		tp.DevPct = p.EngineDevPct
+		r.EnginePoints[rec.Tail] = append(r.EnginePoints[rec.Tail], tp)
+	}
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
 	}
@@ -205,7 +226,10 @@ func (r *Result) add(in Input, rec feed.Record) {
 }
 
 // assess sorts each tail's points and records by time and computes the
-// trends (tails in parallel), the flags and the cost.
+// trends (tails in parallel), the flags and the cost, of the airframe
+// series and, for the tails with thrust from fan speed, of the engine
+// series. An engine or fuel-flow meter event restarts the engine series,
+// any other the airframe series (model.SplitEvents).
 func (r *Result) assess(in Input) {
 	tails := make([]string, 0, len(r.Points))
 	for tail := range r.Points {
@@ -213,6 +237,7 @@ func (r *Result) assess(in Input) {
 	}
 	sort.Strings(tails)
 	trends := make([]model.TailTrend, len(tails))
+	engine := make([]model.TailTrend, len(tails))
 	jobs := make(chan int)
 	var wg sync.WaitGroup
 	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
@@ -226,7 +251,12 @@ func (r *Result) assess(in Input) {
 				if recs := r.Records[tail]; recs != nil {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
 				}
-				trends[i] = model.AnalyzeTrend(tail, pts, in.Events[tail], in.Config)
+				af, en := model.SplitEvents(in.Events[tail])
+				trends[i] = model.AnalyzeTrend(tail, pts, af, in.Config)
+				if ep := r.EnginePoints[tail]; len(ep) > 0 {
+					sort.SliceStable(ep, func(a, b int) bool { return ep[a].Time.Before(ep[b].Time) })
+					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config)
+				}
 			}
 		}()
 	}
@@ -236,4 +266,11 @@ func (r *Result) assess(in Input) {
 	close(jobs)
 	wg.Wait()
 	r.Fleet = model.AssessFleet(trends, in.Config)
+	var withEngine []model.TailTrend
+	for i, tr := range engine {
+		if len(r.EnginePoints[tails[i]]) > 0 {
+			withEngine = append(withEngine, tr)
+		}
+	}
+	r.Engine = model.AssessFleet(withEngine, in.Config)
 }
