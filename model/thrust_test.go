@@ -172,3 +172,33 @@ func TestNewThrustTableErrors(t *testing.T) {
 		})
 	}
 }
+
+// A weight that reads 1 % high moves the drag deviation by about −0.8 pp at
+// cruise: twice the induced share of the baseline drag, since CL and so
+// k CL² rise with it while the measured drag does not (a trade rule of
+// thumb, common practice). Checked over a spread of cruise conditions of
+// the invented twin; the tolerance of 0.15 pp covers the wave drag's share
+// of the CL sensitivity.
+func TestWeightErrorSensitivity(t *testing.T) {
+	ty := twin()
+	for _, w := range []float64{58000, 64000, 70000} {
+		for _, ft := range []float64{33000, 35000, 37000} {
+			for _, m := range []float64{0.76, 0.78} {
+				h := ft * Foot
+				air := AirISA(h, 0)
+				s := Snapshot{Weight: w, Altitude: h, Mach: m, SAT: air.T}
+				p0 := Analyze(ty, Snapshot{Weight: w, Altitude: h, Mach: m, SAT: air.T, FuelFlow: 1})
+				s.FuelFlow = p0.TSFC * p0.CDBaseline * p0.Q * ty.WingArea // on the baseline: deviation 0
+				base := Analyze(ty, s)
+				s.Weight = w * 1.01
+				off := Analyze(ty, s)
+				d := off.DragDevPct - base.DragDevPct
+				share := base.CDInduced / base.CDBaseline
+				if math.Abs(d-(-2*share)) > 0.15 || d > -0.4 || d < -1.3 {
+					t.Errorf("W %.0f kg, FL%.0f, M%.2f: +1 %% weight moves the deviation %+.3f pp; twice the induced share is %.3f pp",
+						w, ft/100, m, d, -2*share)
+				}
+			}
+		}
+	}
+}
