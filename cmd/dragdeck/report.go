@@ -66,10 +66,14 @@ type engineJSON struct {
 	DriftCI95PctPer100d []*float64 `json:"drift_ci95_pct_per_100d"`
 	Steps               []stepJSON `json:"steps"`
 	Flags               []string   `json:"flags"`
+	// The engine's excess fuel, apart from the airframe's.
+	ExcessFuelKgPerYear *float64 `json:"excess_fuel_kg_per_year"`
+	CO2TPerYear         *float64 `json:"co2_t_per_year"`
 }
 
 func newEngineJSON(a model.TailAssessment) *engineJSON {
-	j := &engineJSON{DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope), Steps: stepsJSON(a.Steps), Flags: a.Flags}
+	j := &engineJSON{DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope), Steps: stepsJSON(a.Steps), Flags: a.Flags,
+		ExcessFuelKgPerYear: num(a.ExcessFuel), CO2TPerYear: num(a.CO2 / 1000)}
 	if j.DriftPctPer100d != nil {
 		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
 	}
@@ -240,7 +244,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	case "json":
 		err = writeReportJSON(e.stdout, r)
 	case "csv":
-		err = writeReportCSV(e.stdout, r.Fleet, c.FuelPrice)
+		err = writeReportCSV(e.stdout, r, c.FuelPrice)
 	default:
 		writeReportTable(e.stdout, r, len(files))
 	}
@@ -313,10 +317,13 @@ func fmtF(v float64, prec int) string {
 	return strconv.FormatFloat(v, 'f', prec, 64)
 }
 
-func writeReportCSV(w io.Writer, f model.Fleet, price float64) error {
+func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
+	f := r.Fleet
 	cw := csv.NewWriter(w)
-	head := []string{"tail", "points", "flights", "first", "last", "deviation_pct", "drift_pct_per_100d", "drift_ci95_lo", "drift_ci95_hi",
-		"last_step_date", "last_step_size_pct", "flags", "excess_fuel_kg_per_year", "co2_t_per_year"}
+	head := []string{"tail", "thrust_source", "points", "flights", "first", "last", "deviation_pct", "drift_pct_per_100d", "drift_ci95_lo", "drift_ci95_hi",
+		"last_step_date", "last_step_size_pct", "flags", "excess_fuel_kg_per_year", "co2_t_per_year",
+		"engine_deviation_pct", "engine_drift_pct_per_100d", "engine_last_step_date", "engine_last_step_size_pct", "engine_flags",
+		"engine_excess_fuel_kg_per_year"}
 	if price > 0 {
 		head = append(head, "money_per_year")
 	}
@@ -326,9 +333,18 @@ func writeReportCSV(w io.Writer, f model.Fleet, price float64) error {
 		if k := len(a.Steps); k > 0 {
 			stepDate, stepSize = a.Steps[k-1].Time.UTC().Format(time.DateOnly), fmtF(a.Steps[k-1].SizePct, 2)
 		}
-		row := []string{a.Tail, strconv.Itoa(a.Points), strconv.Itoa(len(a.Flights)), timeOrEmpty(a.First), timeOrEmpty(a.Last),
+		source, eng := "fuel flow", []string{"", "", "", "", "", ""}
+		if e, ok := r.EngineTail(a.Tail); ok {
+			source = "fan speed"
+			eng = []string{fmtF(e.RecentPct, 2), fmtF(e.Drift.Slope, 2), "", "", strings.Join(e.Flags, " "), fmtF(e.ExcessFuel, 0)}
+			if k := len(e.Steps); k > 0 {
+				eng[2], eng[3] = e.Steps[k-1].Time.UTC().Format(time.DateOnly), fmtF(e.Steps[k-1].SizePct, 2)
+			}
+		}
+		row := []string{a.Tail, source, strconv.Itoa(a.Points), strconv.Itoa(len(a.Flights)), timeOrEmpty(a.First), timeOrEmpty(a.Last),
 			fmtF(a.RecentPct, 2), fmtF(a.Drift.Slope, 2), fmtF(a.Drift.Lo, 2), fmtF(a.Drift.Hi, 2), stepDate, stepSize,
 			strings.Join(a.Flags, " "), fmtF(a.ExcessFuel, 0), fmtF(a.CO2/1000, 1)}
+		row = append(row, eng...)
 		if price > 0 {
 			row = append(row, fmtF(a.Money, 0))
 		}
@@ -352,14 +368,21 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		return
 	}
 	fmt.Fprintf(w, "Fleet median recent deviation %s %%; %d tail(s) flagged.\n\n", signed(f.MedianRecentPct, 2), f.Flagged)
+	hasEngine := len(r.Engine.Tails) > 0
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	// Two header lines: the column, then its unit.
 	fmt.Fprint(tw, "tail\tlevel\tdrift\tlast step\tfuel\tCO2\t")
+	if hasEngine {
+		fmt.Fprint(tw, "engine\teng fuel\t")
+	}
 	if price > 0 {
 		fmt.Fprint(tw, "money\t")
 	}
 	fmt.Fprintln(tw, "flags")
 	fmt.Fprint(tw, "\t%\tpp/100d\tdate pp\tt/yr\tt/yr\t")
+	if hasEngine {
+		fmt.Fprint(tw, "%\tt/yr\t")
+	}
 	if price > 0 {
 		fmt.Fprint(tw, "k/yr\t")
 	}
@@ -370,16 +393,26 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		if k := len(a.Steps); k > 0 {
 			step = a.Steps[k-1].Time.UTC().Format(time.DateOnly) + " " + signed(a.Steps[k-1].SizePct, 1)
 		}
-		flags := strings.Join(a.Flags, " ")
-		if flags == "" {
-			flags = "-"
-		}
+		flags := a.Flags
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", a.Tail, signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step,
 			signed(a.ExcessFuel/1000, 0), signed(a.CO2/1000, 0))
+		if hasEngine {
+			if e, ok := r.EngineTail(a.Tail); ok {
+				fmt.Fprintf(tw, "%s\t%s\t", signed(e.RecentPct, 2), signed(e.ExcessFuel/1000, 0))
+				for _, fl := range e.Flags {
+					flags = append(flags[:len(flags):len(flags)], "engine-"+fl)
+				}
+			} else {
+				fmt.Fprint(tw, "n/a\tn/a\t")
+			}
+		}
 		if price > 0 {
 			fmt.Fprintf(tw, "%s\t", signed(a.Money/1000, 0))
 		}
-		fmt.Fprintln(tw, flags)
+		if len(flags) == 0 {
+			flags = []string{"-"}
+		}
+		fmt.Fprintln(tw, strings.Join(flags, " "))
 		if reason := a.Why(); reason != "" {
 			why = append(why, a.Tail+": "+reason)
 		}
@@ -394,6 +427,12 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	fmt.Fprintf(w, "\nlevel: median per-flight drag deviation of the last %g days. drift: pp per\n"+
 		"100 days over the trailing %g days (Theil–Sen). last step: date and size in pp.\n"+
 		"fuel, CO2: excess per year at %g cruise hours", c.RecentDays, c.DriftDays, c.CruiseHours)
+	if hasEngine {
+		fmt.Fprintf(w, ".\nWith fan speed (N1) the level, drift and steps are the airframe's; engine: the\n"+
+			"engine series' level (fuel burnt against the model's for the thrust measured),\n"+
+			"eng fuel its excess fuel a year; n/a: thrust from fuel flow, the drag includes\n"+
+			"engine effects")
+	}
 	if price > 0 {
 		fmt.Fprintf(w, ";\nmoney: thousands per year at %g per kg of fuel", price)
 	}

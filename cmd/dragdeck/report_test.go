@@ -133,7 +133,7 @@ func TestReportFormatsAndExits(t *testing.T) {
 		t.Errorf("rejects file:\n%s", rj)
 	}
 	code, out, _ = runArgs("report", "--format", "csv", snaps)
-	if code != 0 || !strings.HasPrefix(out, "tail,points,flights,first,last,deviation_pct,drift_pct_per_100d") || strings.Count(out, "\n") != 9 {
+	if code != 0 || !strings.HasPrefix(out, "tail,thrust_source,points,flights,first,last,deviation_pct,drift_pct_per_100d") || strings.Count(out, "\n") != 9 {
 		t.Errorf("csv: exit %d\n%s", code, out)
 	}
 	if code, _, _ := runArgs("report", "--fail-on-flag", snaps); code != 1 {
@@ -301,6 +301,16 @@ func TestReportEngineSeries(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &raw); err != nil || len(raw.Tails) != 2 {
 		t.Fatalf("%v\n%s", err, out)
 	}
+	_, table, _ := runArgs("report", "--type", "../../testdata/types/twin_thrust.toml", p)
+	fan, _ := lineOf(table, "FAN ")
+	fuel, _ := lineOf(table, "FUEL ")
+	if !strings.Contains(table, "eng fuel") || !strings.Contains(fuel, "n/a") || strings.Contains(fan, "n/a") {
+		t.Errorf("table without both series:\n%s", table)
+	}
+	_, csvOut, _ := runArgs("report", "--type", "../../testdata/types/twin_thrust.toml", "--format", "csv", p)
+	if !strings.Contains(csvOut, "engine_deviation_pct") || !strings.Contains(csvOut, "FAN,fan speed,") || !strings.Contains(csvOut, "FUEL,fuel flow,") {
+		t.Errorf("csv without both series:\n%s", csvOut)
+	}
 	// Every FAN snapshot is the same, so its engine level is the engine
 	// deviation that point gives for that snapshot.
 	_, pout, _ := runArgs("point", "--type", "../../testdata/types/twin_thrust.toml", "--weight-kg", "65000", "--alt-ft", "35000",
@@ -329,4 +339,14 @@ func TestReportEngineSeries(t *testing.T) {
 			}
 		}
 	}
+}
+
+// lineOf returns the first line of s that contains sub.
+func lineOf(s, sub string) (string, bool) {
+	for _, l := range strings.Split(s, "\n") {
+		if strings.Contains(l, sub) {
+			return l, true
+		}
+	}
+	return "", false
 }
