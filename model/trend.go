@@ -97,6 +97,10 @@ type TrendConfig struct {
 	GrowthPP float64 // flag growth: drift × DriftDays ≥ this (1.0 pp)
 	StepPP   float64 // flag step: an increase ≥ this (1.0 pp)
 
+	// The engine series' flag thresholds, set apart from the airframe's
+	// (the same defaults).
+	EngineLevelPP, EngineGrowthPP, EngineStepPP float64
+
 	CruiseHours float64 // per year, for the cost (2,500 h)
 	FuelPrice   float64 // per kg of fuel, for the cost (0: no money figure)
 }
@@ -108,8 +112,17 @@ func DefaultTrendConfig() TrendConfig {
 		MaxAbsDevPct: 25, MaxBank: 30 * math.Pi / 180, MaxVS: 1500 * Foot / Minute, MaxAccel: 5 * Knot / Minute,
 		MinSegment: 20, PenaltyFactor: 8, StepZ: 4, MinStepPct: 0.5, EventMatchDays: 7, StepWindowDays: 60, RollingHalf: 10,
 		LevelPP: 2, GrowthPP: 1, StepPP: 1,
+		EngineLevelPP: 2, EngineGrowthPP: 1, EngineStepPP: 1,
 		CruiseHours: 2500,
 	}
+}
+
+// EngineSeries returns c with the engine series' flag thresholds in place
+// of the airframe's: the configuration under which an engine series is
+// trended and flagged.
+func (c TrendConfig) EngineSeries() TrendConfig {
+	c.LevelPP, c.GrowthPP, c.StepPP = c.EngineLevelPP, c.EngineGrowthPP, c.EngineStepPP
+	return c
 }
 
 // Reasons a point is not usable for the trend.

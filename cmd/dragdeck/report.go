@@ -149,6 +149,9 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 	levelPP := fs.float("level-pp", "P", c.LevelPP, false, "level flag: percentage points above the fleet median")
 	growthPP := fs.float("growth-pp", "P", c.GrowthPP, false, "growth flag: percentage points over the drift window")
 	stepPP := fs.float("step-pp", "P", c.StepPP, false, "step flag: smallest increase, percentage points")
+	eLevel := fs.float("engine-level-pp", "P", c.EngineLevelPP, false, "engine series' level flag: percentage points above the fleet's engine median")
+	eGrowth := fs.float("engine-growth-pp", "P", c.EngineGrowthPP, false, "engine series' growth flag: percentage points over the drift window")
+	eStep := fs.float("engine-step-pp", "P", c.EngineStepPP, false, "engine series' step flag: smallest increase, percentage points")
 	hours := fs.float("cruise-hours", "H", c.CruiseHours, false, "cruise hours per tail per year")
 	price := fs.float("fuel-price-per-kg", "P", 0, false, "fuel price per kg, for a money figure (any currency)")
 	maxDev := fs.float("max-dev-pct", "P", c.MaxAbsDevPct, false, "points with a larger |deviation| are implausible, %")
@@ -157,7 +160,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 	maxAcc := fs.float("max-accel-kt-per-min", "A", 5, false, "points with a larger |acceleration| are left out, kt/min")
 	return func() (model.TrendConfig, error) {
 		for name, v := range map[string]float64{"recent-days": *recent, "drift-days": *drift, "level-pp": *levelPP, "growth-pp": *growthPP,
-			"step-pp": *stepPP, "cruise-hours": *hours, "max-dev-pct": *maxDev, "max-bank-deg": *maxBank, "max-vs-fpm": *maxVS, "max-accel-kt-per-min": *maxAcc} {
+			"step-pp": *stepPP, "engine-level-pp": *eLevel, "engine-growth-pp": *eGrowth, "engine-step-pp": *eStep, "cruise-hours": *hours, "max-dev-pct": *maxDev, "max-bank-deg": *maxBank, "max-vs-fpm": *maxVS, "max-accel-kt-per-min": *maxAcc} {
 			if math.IsNaN(v) || math.IsInf(v, 0) || v <= 0 {
 				return c, usageErrorf("--%s: must be > 0, got %g", name, v)
 			}
@@ -166,6 +169,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 			return c, usageErrorf("--fuel-price-per-kg: must be ≥ 0, got %g", *price)
 		}
 		c.RecentDays, c.DriftDays, c.LevelPP, c.GrowthPP, c.StepPP, c.CruiseHours, c.FuelPrice = *recent, *drift, *levelPP, *growthPP, *stepPP, *hours, *price
+		c.EngineLevelPP, c.EngineGrowthPP, c.EngineStepPP = *eLevel, *eGrowth, *eStep
 		c.MaxAbsDevPct, c.MaxBank, c.MaxVS, c.MaxAccel = *maxDev, feed.RadFromDeg(*maxBank), feed.MPerSFromFtPerMin(*maxVS), feed.MPerS2FromKtPerMin(*maxAcc)
 		c.MinDriftDays = math.Min(c.MinDriftDays, c.DriftDays)
 		return c, nil

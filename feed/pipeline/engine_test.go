@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -106,6 +107,22 @@ func TestEngineSeriesApart(t *testing.T) {
 		if got := stepOf(en); math.Abs(got-tc.engine) > tol {
 			t.Errorf("%s engine step %+.2f pp, want %+.1f (steps %+v)", tc.tail, got, tc.engine, en.Steps)
 		}
+	}
+	hasFlag := func(a model.TailAssessment, f string) bool { return slices.Contains(a.Flags, f) }
+	eAF, _ := r.Tail("E01")
+	eEN, _ := r.EngineTail("E01")
+	aAF, _ := r.Tail("A01")
+	aEN, _ := r.EngineTail("A01")
+	if len(eAF.Flags) != 0 || !hasFlag(eEN, model.FlagStep) || !hasFlag(aAF, model.FlagStep) || len(aEN.Flags) != 0 {
+		t.Errorf("flags: E01 airframe %v engine %v; A01 airframe %v engine %v", eAF.Flags, eEN.Flags, aAF.Flags, aEN.Flags)
+	}
+	// The engine thresholds are the engine series' own.
+	in.Config.EngineStepPP = 5
+	r5 := Run(in)
+	e5, _ := r5.EngineTail("E01")
+	a5, _ := r5.Tail("A01")
+	if hasFlag(e5, model.FlagStep) || len(e5.Steps) == 0 || !hasFlag(a5, model.FlagStep) {
+		t.Errorf("engine step threshold 5 pp: E01 engine flags %v (steps %d); A01 airframe %v", e5.Flags, len(e5.Steps), a5.Flags)
 	}
 	if _, ok := r.EngineTail("F01"); ok {
 		t.Error("F01 has no fan speed but an engine series")

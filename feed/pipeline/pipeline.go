@@ -255,7 +255,7 @@ func (r *Result) assess(in Input) {
 				trends[i] = model.AnalyzeTrend(tail, pts, af, in.Config)
 				if ep := r.EnginePoints[tail]; len(ep) > 0 {
 					sort.SliceStable(ep, func(a, b int) bool { return ep[a].Time.Before(ep[b].Time) })
-					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config)
+					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config.EngineSeries())
 				}
 			}
 		}()
@@ -272,5 +272,5 @@ func (r *Result) assess(in Input) {
 			withEngine = append(withEngine, tr)
 		}
 	}
-	r.Engine = model.AssessFleet(withEngine, in.Config)
+	r.Engine = model.AssessFleet(withEngine, in.Config.EngineSeries())
 }
