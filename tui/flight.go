@@ -323,11 +323,11 @@ func (s *flightScreen) render() {
 	lines = append(lines, truncate(fmt.Sprintf("%s  %.0f ft  M%.3f  %.1f t  SAT %.1f °C (ISA %+.1f)  fuel %.0f kg/h  bank %.0f°",
 		r.Time.UTC().Format("2006-01-02 15:04Z"), sn.Altitude/model.Foot, sn.Mach, sn.Weight/1000,
 		sn.SAT-model.CelsiusZero, p.ISADev, sn.FuelFlow*model.Hour, sn.Bank*180/math.Pi), s.w))
+	use := "used by the trend"
 	if why := s.left[s.pos-1]; why != "" {
-		lines = append(lines, s.st.Muted.Render(truncate("left out of the trend: "+why, s.w)))
-	} else {
-		lines = append(lines, s.st.Muted.Render(truncate("used by the trend", s.w)))
+		use = "left out of the trend: " + why
 	}
+	lines = append(lines, s.st.Muted.Render(truncate(use+" · "+thrustNote(p), s.w)))
 	lines = append(lines, s.splitBars(p)...)
 	lines = append(lines, "", s.bankLine(p))
 	if s.optOK {
@@ -498,4 +498,17 @@ func (s *flightScreen) deviationChart(w, h int) string {
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f", v) },
 		series: []series{{points: used, line: true, style: s.st.Accent}, {points: out, style: s.st.Muted}}}
 	return spec.render("no data")
+}
+
+// thrustNote says where a snapshot's thrust came from: the fan speed, with
+// the engine deviation apart from the airframe's, or fuel flow, when the
+// drag includes engine effects.
+func thrustNote(p model.Point) string {
+	if p.ThrustFromN1 {
+		return fmt.Sprintf("thrust from fan speed (N1k %.1f %%), engine %+.2f %%", p.N1Corrected, p.EngineDevPct)
+	}
+	if p.OutsideThrustTable {
+		return fmt.Sprintf("N1k %.1f %% outside the thrust table: thrust from fuel flow", p.N1Corrected)
+	}
+	return "thrust from fuel flow: drag includes engine effects"
 }

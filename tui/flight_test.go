@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"fmt"
 	"math"
 	"slices"
 	"strings"
@@ -156,6 +157,30 @@ func TestFlightChartsTheCurrentFlight(t *testing.T) {
 	s.seek(6)
 	if played, _ := s.flightSpan(); len(played) != 1 || !strings.Contains(s.View(), "first snapshot of this flight") {
 		t.Errorf("B's snapshot inside A2: played %v\n%s", played, s.View())
+	}
+}
+
+// The Flight screen says where the thrust came from: fan speed, with the
+// engine deviation apart, or fuel flow, when the drag includes engine
+// effects.
+func TestFlightThrustSource(t *testing.T) {
+	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := demoFleet(t)
+	recs := append([]feed.Record(nil), d.Records[d.Fleet.Tails[0].Tail][:2]...)
+	recs[0].Snap.N1 = 83.5
+	s := newFlightScreen(NewStyles(DefaultTheme))
+	s.SetSize(100, 30)
+	s.Replay(ty, d.Config, "T", "F", recs, 0, math.NaN())
+	want := model.Analyze(ty, recs[0].Snap)
+	if l, ok := lineWith(s.View(), "thrust from fan speed"); !ok || !strings.Contains(l, fmt.Sprintf("engine %+.2f %%", want.EngineDevPct)) {
+		t.Errorf("fan speed snapshot: %q\n%s", l, s.View())
+	}
+	s.seek(2)
+	if _, ok := lineWith(s.View(), "thrust from fuel flow: drag includes engine effects"); !ok {
+		t.Errorf("snapshot without N1:\n%s", s.View())
 	}
 }
 
