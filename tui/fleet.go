@@ -237,7 +237,17 @@ const (
 	colStep  = 17
 	colFuel  = 7
 	colFlags = 14
+	colEng   = 7 // the engine series' level, when any tail has one
 )
+
+// engineCol is the width of the engine column: colEng when some tail has
+// an engine series (thrust from fan speed), else 0.
+func (s *fleetScreen) engineCol() int {
+	if s.data != nil && len(s.data.Engine.Tails) > 0 {
+		return colEng
+	}
+	return 0
+}
 
 func (s *fleetScreen) render() {
 	if s.w <= 0 || s.h <= 0 {
@@ -266,12 +276,13 @@ func (s *fleetScreen) render() {
 		line2 += "   " + s.filter.View()
 	}
 	b.WriteString(truncate(line2, s.w) + "\n")
-	spark := max(0, s.w-colMark-colTail-colDev-colDrift-colStep-colFuel-colFlags-4)
+	eng := s.engineCol()
+	spark := max(0, s.w-colMark-colTail-colDev-colDrift-colStep-colFuel-colFlags-eng-4)
 	// Two header lines: what each column is, then its unit and period.
 	h1 := pad("", colMark) + pad("tail", colTail) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel", colFuel) + " " + pad("flags", colFlags) + " " + pad("per flight", spark)
+		padL("fuel", colFuel) + padL("engine", eng) + " " + pad("flags", colFlags) + " " + pad("per flight", spark)
 	h2 := pad("", colMark) + pad("", colTail) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
-		padL("t/yr", colFuel) + " " + pad("", colFlags) + " " + pad("dev %, all", spark)
+		padL("t/yr", colFuel) + padL("%", eng) + " " + pad("", colFlags) + " " + pad("dev %, all", spark)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {
@@ -311,18 +322,29 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) stri
 			stepStyle = s.st.Flag
 		}
 	}
-	flags := strings.Join(a.Flags, " ")
+	all := a.Flags
+	engine := ""
+	if eng := s.engineCol(); eng > 0 {
+		engine = padL("n/a", eng) // thrust from fuel flow
+		if e, ok := s.data.EngineTail(a.Tail); ok {
+			engine = padL(fmtSigned(e.RecentPct, 2), eng)
+			for _, f := range e.Flags {
+				all = append(all[:len(all):len(all)], "e-"+f)
+			}
+		}
+	}
+	flags := strings.Join(all, " ")
 	if flags == "" {
 		flags = "-"
 	}
 	spk := s.sparkFor(a, spark)
 	num := pad(clean(a.Tail), colTail) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
-	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + " "
+	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
 	if selected {
 		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+pad(flags, colFlags)+" "+spk, s.w-colMark))
 	}
 	flagCell := pad(flags, colFlags)
-	if len(a.Flags) > 0 {
+	if len(all) > 0 {
 		flagCell = s.st.Flag.Render(flagCell)
 	}
 	return truncate(noMark+num+stepStyle.Render(pad(step, colStep))+fuel+flagCell+" "+s.st.Accent.Render(spk), s.w)

@@ -7,6 +7,11 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
+
+	"dragdeck/feed"
+	"dragdeck/feed/demo"
+	"dragdeck/feed/pipeline"
+	"dragdeck/model"
 )
 
 func TestFleetFilter(t *testing.T) {
@@ -180,5 +185,46 @@ func TestFleetCleansNames(t *testing.T) {
 	}
 	if w := lipgloss.Width(v); w > 100 {
 		t.Errorf("width %d", w)
+	}
+}
+
+// With fan speed on some tails, the Fleet screen shows each tail's engine
+// level beside its airframe level, n/a for a tail on fuel flow, and still
+// fits 80 columns.
+func TestFleetEngineColumn(t *testing.T) {
+	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := demo.NewFleet(demo.Config{Tails: 3, Days: 60, Seed: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	recs := append([]feed.Record(nil), d.Records...)
+	fan := recs[0].Tail
+	for i := range recs {
+		if recs[i].Tail == fan {
+			recs[i].Snap.N1 = 83.5
+		}
+	}
+	r := pipeline.FromRecords(recs, d.Stats, pipeline.Input{Type: ty, Config: model.DefaultTrendConfig()})
+	e, ok := r.EngineTail(fan)
+	if !ok {
+		t.Fatal("no engine series")
+	}
+	m := sized(NewData("test", r), 80, 24)
+	v := checkFrame(t, m, 80, 24)
+	if h, _ := lineWith(v, "last step"); !strings.Contains(h, "engine") {
+		t.Errorf("header without the engine column: %q", h)
+	}
+	for _, a := range r.Fleet.Tails {
+		l, _ := lineWith(v, a.Tail)
+		want := "n/a"
+		if a.Tail == fan {
+			want = fmtSigned(e.RecentPct, 2)
+		}
+		if !strings.Contains(l, want) {
+			t.Errorf("%s: row %q lacks %q", a.Tail, l, want)
+		}
 	}
 }
