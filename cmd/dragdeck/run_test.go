@@ -328,3 +328,71 @@ func TestBankMarksBuffet(t *testing.T) {
 		t.Errorf("no buffet footnote:\n%s", out)
 	}
 }
+
+// point --n1-pct against an independent implementation of thrust from fan
+// speed, written out here from the published relations rather than through
+// package model: the ICAO troposphere p = p0 (1 − L h/T0)^(g0/(R L))
+// (ICAO Doc 7488), θt2 = θ (1 + 0.2 M²) and N1k = N1/√θt2 (SAE AIR1703
+// corrected parameters), bilinear interpolation by hand in the table of
+// testdata/types/twin_thrust.toml, the parabolic polar with Korn's drag
+// divergence and Lock's wave drag (Gur, Mason & Schetz 2010), and TSFC =
+// (a + b M) √θ. The budget is 0.05 pp of deviation and 0.2 % of thrust.
+func TestPointN1Independent(t *testing.T) {
+	const (
+		wKg, altFt, mach, satC, ffKgph, n1 = 65000.0, 35000.0, 0.78, -54.0, 2400.0, 83.5
+		g0, rAir, lapse, t0, p0            = 9.80665, 287.05287, 0.0065, 288.15, 101325.0
+		area, span, cd0, osw               = 112.0, 33.2, 0.0210, 0.74
+		kappa, tc, sweepDeg                = 0.945, 0.12, 25.0
+		tsfcA, tsfcB, engines              = 0.38, 0.36, 2.0
+	)
+	h := altFt * 0.3048
+	delta := math.Pow(1-lapse*h/t0, g0/(rAir*lapse))
+	theta := (satC + 273.15) / t0
+	n1k := n1 / math.Sqrt(theta*(1+0.2*mach*mach))
+	// The table: rows at Mach 0.7 and 0.8 bracket 0.78, columns 90 and 100 % bracket N1k.
+	if n1k < 90 || n1k > 100 {
+		t.Fatalf("N1k %.2f: the hand interpolation below assumes 90…100 %%", n1k)
+	}
+	fx := (n1k - 90) / 10
+	f07 := 86000 + fx*(115000-86000)
+	f08 := 83500 + fx*(112000-83500)
+	fPerDelta := f07 + (mach-0.7)/0.1*(f08-f07)
+	fn := engines * delta * fPerDelta
+
+	q := 0.7 * p0 * delta * mach * mach
+	cl := wKg * g0 / (q * area)
+	ar := span * span / area
+	cosL := math.Cos(sweepDeg * math.Pi / 180)
+	mdd := kappa/cosL - tc/(cosL*cosL) - cl/(10*cosL*cosL*cosL)
+	mcr := mdd - math.Cbrt(0.1/80)
+	wave := 0.0
+	if mach > mcr {
+		wave = 20 * math.Pow(mach-mcr, 4)
+	}
+	cdBase := cd0 + cl*cl/(math.Pi*osw*ar) + wave
+	devWant := 100 * (fn/(q*area)/cdBase - 1)
+	tsfc := (tsfcA + tsfcB*mach) * math.Sqrt(theta) / (g0 * 3600) // kg/(N s)
+	engWant := 100 * (ffKgph/3600/(tsfc*fn) - 1)
+
+	code, out, errs := runArgs("point", "--type", "../../testdata/types/twin_thrust.toml", "--weight-kg", "65000", "--alt-ft", "35000",
+		"--mach", "0.78", "--sat-c", "-54", "--fuel-flow-kgph", "2400", "--n1-pct", "83.5", "--json")
+	var j struct {
+		Thrust float64 `json:"thrust_n"`
+		Dev    float64 `json:"drag_deviation_pct"`
+		Engine float64 `json:"engine_deviation_pct"`
+		N1k    float64 `json:"n1_corrected_pct"`
+	}
+	if code != 0 || json.Unmarshal([]byte(out), &j) != nil {
+		t.Fatalf("exit %d %s\n%s", code, errs, out)
+	}
+	if math.Abs(j.Thrust-fn) > 0.002*fn {
+		t.Errorf("thrust %.0f N, independent %.0f N (%.3f %%)", j.Thrust, fn, 100*(j.Thrust/fn-1))
+	}
+	if math.Abs(j.Dev-devWant) > 0.05 || math.Abs(j.Engine-engWant) > 0.05 {
+		t.Errorf("airframe %+.3f %% (independent %+.3f), engine %+.3f %% (independent %+.3f)", j.Dev, devWant, j.Engine, engWant)
+	}
+	if math.Abs(j.N1k-n1k) > 1e-6 {
+		t.Errorf("N1k %.4f %%, independent %.4f %%", j.N1k, n1k)
+	}
+	t.Logf("thrust %.1f N vs %.1f N; airframe %+.4f vs %+.4f %%; engine %+.4f vs %+.4f %%", j.Thrust, fn, j.Dev, devWant, j.Engine, engWant)
+}
