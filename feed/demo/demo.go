@@ -78,24 +78,28 @@ const (
 
 // Truth is what the generator put into the demo fleet (truth.json).
 type Truth struct {
-	Generator      string       `json:"generator"`
-	Airline        string       `json:"airline"`
-	Type           string       `json:"type"`
-	Seed           uint64       `json:"seed"`
-	Days           int          `json:"days"`
-	Start          string       `json:"start"`
-	End            string       `json:"end"`
-	SnapshotFile   string       `json:"snapshot_file"`
-	Rows           int          `json:"rows"`
-	Accepted       int          `json:"accepted"`
-	Rejected       int          `json:"rejected"`
-	Thresholds     truthLimits  `json:"thresholds"`
-	FleetMedianPct float64      `json:"fleet_recent_level_median_pct"`
-	Tails          []TailTruth  `json:"tails"`
-	BrokenRows     []BrokenRow  `json:"broken_rows"`
-	Traces         []TraceTruth `json:"traces"`
-	Events         []Event      `json:"events"`
-	Note           string       `json:"note"`
+	Generator      string      `json:"generator"`
+	Airline        string      `json:"airline"`
+	Type           string      `json:"type"`
+	Seed           uint64      `json:"seed"`
+	Days           int         `json:"days"`
+	Start          string      `json:"start"`
+	End            string      `json:"end"`
+	SnapshotFile   string      `json:"snapshot_file"`
+	Rows           int         `json:"rows"`
+	Accepted       int         `json:"accepted"`
+	Rejected       int         `json:"rejected"`
+	Thresholds     truthLimits `json:"thresholds"`
+	FleetMedianPct float64     `json:"fleet_recent_level_median_pct"`
+	// ReferenceCD is the baseline CD at the reference cruise; a deviation
+	// d % of the truth is an excess ΔCD = d/100 × ReferenceCD at every
+	// condition (lift-independent).
+	ReferenceCD float64      `json:"reference_cd_baseline"`
+	Tails       []TailTruth  `json:"tails"`
+	BrokenRows  []BrokenRow  `json:"broken_rows"`
+	Traces      []TraceTruth `json:"traces"`
+	Events      []Event      `json:"events"`
+	Note        string       `json:"note"`
 }
 
 type truthLimits struct {
@@ -177,6 +181,12 @@ type demoGen struct {
 	// optimum altitude (m) by weight in steps of 2 % of wMid, for levels
 	optAlt         map[int]float64
 	machLo, machHi float64 // cruise Mach range flown
+	// refCD is the baseline drag coefficient at the reference cruise (mid
+	// weight, its optimum altitude, mid Mach, ISA): a tail's deviation d %
+	// is the lift-independent excess ΔCD = d/100 · refCD, so that the
+	// deviation measured at another condition is ΔCD over that condition's
+	// baseline, as the analysis takes it.
+	refCD float64
 }
 
 // wingLoading is the demo's mid cruise weight per wing area at a buffet
@@ -196,6 +206,12 @@ func newDemoGen(cfg Config) *demoGen {
 	mr := model.MaxRangeMach(g.ty, g.wMid, model.AirISA(g.optAlt[50], 0), 0).Mach
 	g.machHi = math.Min(mr+0.022, g.ty.MMO-0.005)
 	g.machLo = g.machHi - 0.03
+	{
+		air := model.AirISA(g.optAlt[50], 0)
+		mRef := (g.machLo + g.machHi) / 2
+		cl := model.LiftCoefficient(1, g.wMid, air.DynamicPressure(mRef), g.ty.WingArea)
+		g.refCD = g.ty.CD(cl, mRef, 0)
+	}
 	g.assignRoles()
 	return g
 }
@@ -321,7 +337,7 @@ func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, 
 	q := air.DynamicPressure(m)
 	n := model.LoadFactor(bankDeg * math.Pi / 180)
 	cl := model.LiftCoefficient(n, w, q, g.ty.WingArea)
-	cd := g.ty.CD(cl, m, 0) * (1 + tt.deviation(t)/100)
+	cd := g.ty.CD(cl, m, tt.deviation(t)/100*g.refCD) // excess lift-independent, as the analysis takes it
 	tas := air.TAS(m)
 	thrust := cd*q*g.ty.WingArea + w*model.G0*feed.MPerSFromFtPerMin(vsFpm)/tas + w*feed.MPerS2FromKtPerMin(acc)
 	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + noise)

@@ -156,10 +156,12 @@ func (g *demoGen) newTruth() Truth {
 		SnapshotFile:   SnapshotFile,
 		Thresholds:     truthLimits{LevelPP: truthLevelPP, GrowthPPin180: truthGrowthPP, StepPP: truthStepPP},
 		FleetMedianPct: g.fleetMedian(),
+		ReferenceCD:    g.refCD,
 		Tails:          g.tails,
 		BrokenRows:     []BrokenRow{},
 		Traces:         []TraceTruth{},
-		Note: "Invented data. Deviations are drag deviation % from the baseline polar; expected_flags follow " +
+		Note: "Invented data. Deviations are drag deviation % from the baseline polar at the reference cruise: an excess " +
+			"ΔCD = deviation/100 × reference_cd_baseline, the same at every lift coefficient; expected_flags follow " +
 			"the flag rules (level, growth, step; see the README's method) with the thresholds above and the fleet median recent level.",
 	}
 }
