@@ -192,26 +192,8 @@ func TestFleetCleansNames(t *testing.T) {
 // level beside its airframe level, n/a for a tail on fuel flow, and still
 // fits 80 columns.
 func TestFleetEngineColumn(t *testing.T) {
-	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	d, err := demo.NewFleet(demo.Config{Tails: 3, Days: 60, Seed: 5})
-	if err != nil {
-		t.Fatal(err)
-	}
-	recs := append([]feed.Record(nil), d.Records...)
-	fan := recs[0].Tail
-	for i := range recs {
-		if recs[i].Tail == fan {
-			recs[i].Snap.N1 = 83.5
-		}
-	}
-	r := pipeline.FromRecords(recs, d.Stats, pipeline.Input{Type: ty, Config: model.DefaultTrendConfig()})
-	e, ok := r.EngineTail(fan)
-	if !ok {
-		t.Fatal("no engine series")
-	}
+	r, fan := engineResult(t)
+	e, _ := r.EngineTail(fan)
 	m := sized(NewData("test", r), 80, 24)
 	v := checkFrame(t, m, 80, 24)
 	if h, _ := lineWith(v, "last step"); !strings.Contains(h, "engine") {
@@ -227,4 +209,31 @@ func TestFleetEngineColumn(t *testing.T) {
 			t.Errorf("%s: row %q lacks %q", a.Tail, l, want)
 		}
 	}
+}
+
+// engineResult is a small demo fleet on the thrust-table twin whose first
+// tail has fan speed on every snapshot (so an engine series) and the
+// others none.
+func engineResult(t *testing.T) (*pipeline.Result, string) {
+	t.Helper()
+	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := demo.NewFleet(demo.Config{Tails: 3, Days: 60, Seed: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	recs := append([]feed.Record(nil), d.Records...)
+	fan := recs[0].Tail
+	for i := range recs {
+		if recs[i].Tail == fan {
+			recs[i].Snap.N1 = 83.5
+		}
+	}
+	r := pipeline.FromRecords(recs, d.Stats, pipeline.Input{Type: ty, Config: model.DefaultTrendConfig(), KeepRecords: true})
+	if _, ok := r.EngineTail(fan); !ok {
+		t.Fatal("no engine series")
+	}
+	return r, fan
 }

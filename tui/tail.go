@@ -227,7 +227,21 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	for _, e := range a.Events {
 		spec.marks = append(spec.marks, vmark{x: x(e.Time), style: s.st.Event})
 	}
-	legend := s.st.Muted.Render("drag deviation per flight, % · ") + s.st.Accent.Render("rolling median") + " · " +
+	engine := ""
+	if e, ok := s.data.EngineTail(a.Tail); ok {
+		var em [][2]float64
+		for _, f := range e.Flights {
+			if !f.Time.Before(start) && !f.Time.After(end) {
+				em = append(em, [2]float64{x(f.Time), f.RollingPct})
+			}
+		}
+		spec.series = append(spec.series, series{points: em, line: true, style: s.st.Engine})
+		for _, st := range e.Steps {
+			spec.marks = append(spec.marks, vmark{x: x(st.Time), style: s.st.Engine})
+		}
+		engine = s.st.Engine.Render("engine") + " · "
+	}
+	legend := s.st.Muted.Render("drag deviation per flight, % · ") + s.st.Accent.Render("rolling median") + " · " + engine +
 		s.st.Drift.Render("drift") + " · " + s.st.Flag.Render("step up") + " · " + s.st.Improve.Render("step down") + " · " +
 		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→)", s.window))
 	return truncate(legend, w) + "\n" + spec.render("no flights in this window")
@@ -299,6 +313,20 @@ func (s *tailScreen) facts(w, h int) string {
 		add(style, "step   %s %s ± %.2f pp%s", st.Time.Format("2006-01-02"), fmtSigned(st.SizePct, 2), st.SE, ev)
 	}
 	add(s.st.Text, "cost   %s t fuel · %s t CO2 a year", fmtSigned(a.ExcessFuel/1000, 0), fmtSigned(a.CO2/1000, 0))
+	if e, ok := s.data.EngineTail(a.Tail); ok {
+		flags := strings.Join(e.Flags, " ")
+		if flags == "" {
+			flags = "no flags"
+		}
+		step := "no step"
+		if k := len(e.Steps); k > 0 {
+			step = "step " + e.Steps[k-1].Time.Format("2006-01-02") + " " + fmtSigned(e.Steps[k-1].SizePct, 2)
+		}
+		add(s.st.Engine, "engine %s %% · %s pp/100 d · %s · %s t fuel · %s", fmtSigned(e.RecentPct, 2), fmtSigned(e.Drift.Slope, 2), step,
+			fmtSigned(e.ExcessFuel/1000, 0), flags)
+	} else {
+		add(s.st.Muted, "engine unknown (thrust from fuel flow)")
+	}
 	if c.FuelPrice > 0 {
 		add(s.st.Text, "       %s a year at %g per kg", fmtSigned(a.Money, 0), c.FuelPrice)
 	}

@@ -89,3 +89,24 @@ func TestTailMonthAxis(t *testing.T) {
 		t.Errorf("month axis:\n%s", v)
 	}
 }
+
+// The Tail screen shows the engine series beside the airframe's: its facts
+// line and its rolling median in the engine colour; a tail on fuel flow
+// says its engine is unknown.
+func TestTailEngineSeries(t *testing.T) {
+	r, fan := engineResult(t)
+	e, _ := r.EngineTail(fan)
+	m := sized(NewData("test", r), 120, 40)
+	for _, a := range r.Fleet.Tails {
+		m.tail.SetTail(a.Tail)
+		m.activate(scrTail)
+		v := m.View()
+		if a.Tail == fan {
+			if l, ok := lineWith(v, "engine "+fmtSigned(e.RecentPct, 2)); !ok || !strings.Contains(v, "rolling median · engine") {
+				t.Errorf("%s: engine facts %q\n%s", a.Tail, l, v)
+			}
+		} else if _, ok := lineWith(v, "engine unknown (thrust from fuel flow)"); !ok {
+			t.Errorf("%s on fuel flow:\n%s", a.Tail, v)
+		}
+	}
+}

@@ -14,6 +14,7 @@ type Theme struct {
 	Base    lipgloss.AdaptiveColor // baseline polar and baseline values
 	Wave    lipgloss.AdaptiveColor // wave drag
 	Limit   lipgloss.AdaptiveColor // beyond a limit: buffet margin, thrust
+	Engine  lipgloss.AdaptiveColor // the engine series (thrust from fan speed)
 }
 
 // DefaultTheme is dragdeck's own palette.
@@ -28,12 +29,14 @@ var DefaultTheme = Theme{
 	Base:    lipgloss.AdaptiveColor{Light: "#57606a", Dark: "#adbac7"},
 	Wave:    lipgloss.AdaptiveColor{Light: "#1b7c83", Dark: "#39c5cf"},
 	Limit:   lipgloss.AdaptiveColor{Light: "#bf3989", Dark: "#f778ba"},
+	Engine:  lipgloss.AdaptiveColor{Light: "#6b6b00", Dark: "#d7d75f"},
 }
 
 // Styles are every style the screens use, derived from a Theme.
 type Styles struct {
-	Title, Tab, TabActive, Header, Muted, Text, Selected              lipgloss.Style
-	Flag, Improve, Drift, Event, Base, Accent, Wave, Limit, Box, Help lipgloss.Style
+	Title, Tab, TabActive, Header, Muted, Text, Selected           lipgloss.Style
+	Flag, Improve, Drift, Event, Base, Accent, Wave, Limit, Engine lipgloss.Style
+	Box, Help                                                      lipgloss.Style
 }
 
 // NewStyles derives the styles from t.
@@ -55,6 +58,7 @@ func NewStyles(t Theme) Styles {
 		Accent:    s.Foreground(t.Accent),
 		Wave:      s.Foreground(t.Wave),
 		Limit:     s.Foreground(t.Limit).Bold(true),
+		Engine:    s.Foreground(t.Engine),
 		Box:       s.Border(lipgloss.RoundedBorder()).BorderForeground(t.Muted).Padding(0, 1),
 		Help:      s.Foreground(t.Muted),
 	}
