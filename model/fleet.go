@@ -29,6 +29,10 @@ type Fleet struct {
 	Tails           []TailAssessment
 	MedianRecentPct float64 // median of the tails' recent levels; NaN if none
 	Flagged         int
+	// ExcessFuel, CO2 and Money are the sums over the tails that have a
+	// figure (kg, kg and currency a year): net, so a tail below its
+	// baseline counts against the others. NaN when no tail has one.
+	ExcessFuel, CO2, Money float64
 }
 
 // AssessFleet flags each tail (DESIGN.md §4.9) and prices its excess
@@ -48,7 +52,7 @@ func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 			levels = append(levels, t.RecentPct)
 		}
 	}
-	f := Fleet{MedianRecentPct: median(levels)}
+	f := Fleet{MedianRecentPct: median(levels), ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN()}
 	for _, t := range trends {
 		a := TailAssessment{TailTrend: t, Flags: []string{}, ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN()}
 		if !math.IsNaN(t.RecentPct) && !math.IsNaN(f.MedianRecentPct) && t.RecentPct >= f.MedianRecentPct+c.LevelPP {
@@ -72,6 +76,12 @@ func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 			a.ExcessFuel = t.RecentPct / 100 * t.FuelFlowExpected * Hour * c.CruiseHours
 			a.CO2 = CO2PerFuel * a.ExcessFuel
 			a.Money = a.ExcessFuel * c.FuelPrice
+			if math.IsNaN(f.ExcessFuel) {
+				f.ExcessFuel, f.CO2, f.Money = 0, 0, 0
+			}
+			f.ExcessFuel += a.ExcessFuel
+			f.CO2 += a.CO2
+			f.Money += a.Money
 		}
 		if len(a.Flags) > 0 {
 			f.Flagged++

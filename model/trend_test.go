@@ -313,6 +313,15 @@ func TestAssessFleet(t *testing.T) {
 			}
 		}
 	}
+	// The fleet's total: the recent levels sum to 4.7 pp (0 + 0.2 − 0.1 +
+	// 2.5 + 1.0 + 0.5 + 0.5 + 1.5 + 0.1 − 1.5), each pp 63,000 kg a year
+	// (1 % of 2,520 kg/h over 2,500 h): 296,100 kg, net.
+	if math.Abs(f.ExcessFuel-296100) > 1e-6 || math.Abs(f.CO2-3.16*296100) > 1e-3 || math.Abs(f.Money-0.8*296100) > 1e-6 {
+		t.Errorf("fleet total %g kg, %g kg CO2, %g money", f.ExcessFuel, f.CO2, f.Money)
+	}
+	if e := AssessFleet(nil, c); !math.IsNaN(e.ExcessFuel) || !math.IsNaN(e.CO2) {
+		t.Errorf("empty fleet total %g kg, want NaN", e.ExcessFuel)
+	}
 }
 
 func fmtFlags(f []string) string {

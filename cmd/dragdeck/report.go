@@ -33,6 +33,21 @@ type fleetJSON struct {
 	DeviationPctMedian *float64 `json:"deviation_pct_median"`
 	First              string   `json:"first,omitempty"`
 	Last               string   `json:"last,omitempty"`
+	// The airframe series' excess fuel and CO2 a year, summed over the
+	// tails (net); the engine series' apart, null without fan speed.
+	ExcessFuelKgPerYear *float64         `json:"excess_fuel_kg_per_year"`
+	CO2TPerYear         *float64         `json:"co2_t_per_year"`
+	Engine              *fleetEngineJSON `json:"engine"`
+}
+
+// fleetEngineJSON is the fleet's engine series: its tails, median level
+// and excess fuel.
+type fleetEngineJSON struct {
+	Tails               int      `json:"tails"`
+	Flagged             int      `json:"flagged"`
+	DeviationPctMedian  *float64 `json:"deviation_pct_median"`
+	ExcessFuelKgPerYear *float64 `json:"excess_fuel_kg_per_year"`
+	CO2TPerYear         *float64 `json:"co2_t_per_year"`
 }
 
 type tailJSON struct {
@@ -301,9 +316,14 @@ func writeReportJSON(w io.Writer, r *pipeline.Result) error {
 	f, c, t := r.Fleet, r.Config, r.Type
 	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
 		Fleet: fleetJSON{Tails: len(f.Tails), Flagged: f.Flagged, DeviationPctMedian: num(f.MedianRecentPct),
-			First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last)},
+			First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last),
+			ExcessFuelKgPerYear: num(f.ExcessFuel), CO2TPerYear: num(f.CO2 / 1000)},
 		Settings: map[string]any{"type": t.Name, "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
+	if e := r.Engine; len(e.Tails) > 0 {
+		j.Fleet.Engine = &fleetEngineJSON{Tails: len(e.Tails), Flagged: e.Flagged, DeviationPctMedian: num(e.MedianRecentPct),
+			ExcessFuelKgPerYear: num(e.ExcessFuel), CO2TPerYear: num(e.CO2 / 1000)}
+	}
 	for _, a := range f.Tails {
 		var engine *model.TailAssessment
 		if e, ok := r.EngineTail(a.Tail); ok {
@@ -371,7 +391,13 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		fmt.Fprintf(w, "\nNo usable snapshots: nothing to report.\n\n%s\n", caution)
 		return
 	}
-	fmt.Fprintf(w, "Fleet median recent deviation %s %%; %d tail(s) flagged.\n\n", signed(f.MedianRecentPct, 2), f.Flagged)
+	fmt.Fprintf(w, "Fleet median recent deviation %s %%; %d tail(s) flagged.\n", signed(f.MedianRecentPct, 2), f.Flagged)
+	fmt.Fprintf(w, "Excess a year, net over the tails: %s t fuel, %s t CO2", signed(f.ExcessFuel/1000, 0), signed(f.CO2/1000, 0))
+	if e := r.Engine; len(e.Tails) > 0 {
+		fmt.Fprintf(w, " (airframe).\nEngine series, %d tail(s) with fan speed: median %s %%, %d flagged, %s t fuel,\n%s t CO2",
+			len(e.Tails), signed(e.MedianRecentPct, 2), e.Flagged, signed(e.ExcessFuel/1000, 0), signed(e.CO2/1000, 0))
+	}
+	fmt.Fprint(w, ".\n\n")
 	hasEngine := len(r.Engine.Tails) > 0
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	// Two header lines: the column, then its unit.

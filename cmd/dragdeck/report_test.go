@@ -302,6 +302,14 @@ func TestReportEngineSeries(t *testing.T) {
 		t.Fatalf("%v\n%s", err, out)
 	}
 	_, table, _ := runArgs("report", "--type", "../../testdata/types/twin_thrust.toml", p)
+	for _, line := range strings.Split(table, "\n") {
+		if len([]rune(line)) > 80 {
+			t.Errorf("table line wider than 80 columns: %q", line)
+		}
+	}
+	if !strings.Contains(table, "(airframe).") || !strings.Contains(table, "Engine series, 1 tail(s) with fan speed") {
+		t.Errorf("table without the fleet totals of both series:\n%s", table)
+	}
 	fan, _ := lineOf(table, "FAN ")
 	fuel, _ := lineOf(table, "FUEL ")
 	if !strings.Contains(table, "eng fuel") || !strings.Contains(fuel, "n/a") || strings.Contains(fan, "n/a") {
@@ -320,6 +328,19 @@ func TestReportEngineSeries(t *testing.T) {
 	}
 	if err := json.Unmarshal([]byte(pout), &pj); err != nil {
 		t.Fatal(err)
+	}
+	var fleet struct {
+		Fleet struct {
+			Fuel   *float64 `json:"excess_fuel_kg_per_year"`
+			Engine *struct {
+				Tails int      `json:"tails"`
+				Fuel  *float64 `json:"excess_fuel_kg_per_year"`
+			} `json:"engine"`
+		} `json:"fleet"`
+	}
+	if err := json.Unmarshal([]byte(out), &fleet); err != nil || fleet.Fleet.Fuel == nil || fleet.Fleet.Engine == nil ||
+		fleet.Fleet.Engine.Tails != 1 || fleet.Fleet.Engine.Fuel == nil {
+		t.Errorf("fleet totals: %v %+v", err, fleet.Fleet)
 	}
 	for _, tail := range raw.Tails {
 		engine, has := tail["engine"]
