@@ -28,21 +28,16 @@ type reportJSON struct {
 }
 
 type fleetJSON struct {
-	Tails              int      `json:"tails"`
-	Flagged            int      `json:"flagged"`
-	DeviationPctMedian *float64 `json:"deviation_pct_median"`
-	First              string   `json:"first,omitempty"`
-	Last               string   `json:"last,omitempty"`
-	// The airframe series' excess fuel and CO2 a year, summed over the
-	// tails (net); the engine series' apart, null without fan speed.
-	ExcessFuelKgPerYear *float64         `json:"excess_fuel_kg_per_year"`
-	CO2TPerYear         *float64         `json:"co2_t_per_year"`
-	Engine              *fleetEngineJSON `json:"engine"`
+	fleetSeriesJSON        // the airframe series
+	First           string `json:"first,omitempty"`
+	Last            string `json:"last,omitempty"`
+	// Engine is the engine series of the tails with fan speed; null without.
+	Engine *fleetSeriesJSON `json:"engine"`
 }
 
-// fleetEngineJSON is the fleet's engine series: its tails, median level
-// and excess fuel.
-type fleetEngineJSON struct {
+// fleetSeriesJSON is one series over the fleet: its tails, flags, median
+// recent level and excess fuel and CO2 a year, summed over the tails (net).
+type fleetSeriesJSON struct {
 	Tails               int      `json:"tails"`
 	Flagged             int      `json:"flagged"`
 	DeviationPctMedian  *float64 `json:"deviation_pct_median"`
@@ -50,44 +45,42 @@ type fleetEngineJSON struct {
 	CO2TPerYear         *float64 `json:"co2_t_per_year"`
 }
 
+func newFleetSeriesJSON(f model.Fleet) fleetSeriesJSON {
+	return fleetSeriesJSON{Tails: len(f.Tails), Flagged: f.Flagged, DeviationPctMedian: num(f.MedianRecentPct),
+		ExcessFuelKgPerYear: num(f.ExcessFuel), CO2TPerYear: num(f.CO2 / 1000)}
+}
+
 type tailJSON struct {
 	Tail string `json:"tail"`
 	// ThrustSource is "fan speed" when the tail has an engine series, else
 	// "fuel flow" (the drag then includes engine effects).
-	ThrustSource        string         `json:"thrust_source"`
-	Points              int            `json:"points"`
-	Flights             int            `json:"flights"`
-	First               string         `json:"first"`
-	Last                string         `json:"last"`
-	DeviationPct        *float64       `json:"deviation_pct"`
-	DriftPctPer100d     *float64       `json:"drift_pct_per_100d"`
-	DriftCI95PctPer100d []*float64     `json:"drift_ci95_pct_per_100d"`
-	Steps               []stepJSON     `json:"steps"`
-	Flags               []string       `json:"flags"`
-	ExcessFuelKgPerYear *float64       `json:"excess_fuel_kg_per_year"`
-	CO2TPerYear         *float64       `json:"co2_t_per_year"`
-	NoLevel             string         `json:"no_level_reason,omitempty"` // why deviation_pct is null
-	MoneyPerYear        *float64       `json:"money_per_year,omitempty"`
-	Excluded            map[string]int `json:"excluded"`
+	ThrustSource string         `json:"thrust_source"`
+	Points       int            `json:"points"`
+	Flights      int            `json:"flights"`
+	First        string         `json:"first"`
+	Last         string         `json:"last"`
+	seriesJSON                  // the airframe series
+	NoLevel      string         `json:"no_level_reason,omitempty"` // why deviation_pct is null
+	MoneyPerYear *float64       `json:"money_per_year,omitempty"`
+	Excluded     map[string]int `json:"excluded"`
 	// Engine is the tail's engine series; null without thrust from fan speed.
-	Engine *engineJSON `json:"engine"`
+	Engine *seriesJSON `json:"engine"`
 }
 
-// engineJSON is a tail's engine series: engine deviation, %, trended and
-// flagged like the airframe's.
-type engineJSON struct {
+// seriesJSON is one series of a tail, airframe or engine: its recent
+// level, %, drift, steps, flags and excess fuel.
+type seriesJSON struct {
 	DeviationPct        *float64   `json:"deviation_pct"`
 	DriftPctPer100d     *float64   `json:"drift_pct_per_100d"`
 	DriftCI95PctPer100d []*float64 `json:"drift_ci95_pct_per_100d"`
 	Steps               []stepJSON `json:"steps"`
 	Flags               []string   `json:"flags"`
-	// The engine's excess fuel, apart from the airframe's.
-	ExcessFuelKgPerYear *float64 `json:"excess_fuel_kg_per_year"`
-	CO2TPerYear         *float64 `json:"co2_t_per_year"`
+	ExcessFuelKgPerYear *float64   `json:"excess_fuel_kg_per_year"`
+	CO2TPerYear         *float64   `json:"co2_t_per_year"`
 }
 
-func newEngineJSON(a model.TailAssessment) *engineJSON {
-	j := &engineJSON{DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope), Steps: stepsJSON(a.Steps), Flags: a.Flags,
+func newSeriesJSON(a model.TailAssessment) seriesJSON {
+	j := seriesJSON{DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope), Steps: stepsJSON(a.Steps), Flags: a.Flags,
 		ExcessFuelKgPerYear: num(a.ExcessFuel), CO2TPerYear: num(a.CO2 / 1000)}
 	if j.DriftPctPer100d != nil {
 		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
@@ -139,15 +132,11 @@ func newTailJSON(a model.TailAssessment, engine *model.TailAssessment, price flo
 	j := tailJSON{
 		Tail: a.Tail, ThrustSource: "fuel flow", Points: a.Points, Flights: len(a.Flights),
 		First: timeOrEmpty(a.First), Last: timeOrEmpty(a.Last),
-		DeviationPct: num(a.RecentPct), DriftPctPer100d: num(a.Drift.Slope),
-		Steps: stepsJSON(a.Steps), Flags: a.Flags,
-		ExcessFuelKgPerYear: num(a.ExcessFuel), CO2TPerYear: num(a.CO2 / 1000), Excluded: a.Excluded, NoLevel: a.Why(),
-	}
-	if j.DriftPctPer100d != nil {
-		j.DriftCI95PctPer100d = []*float64{num(a.Drift.Lo), num(a.Drift.Hi)}
+		seriesJSON: newSeriesJSON(a), Excluded: a.Excluded, NoLevel: a.Why(),
 	}
 	if engine != nil {
-		j.ThrustSource, j.Engine = "fan speed", newEngineJSON(*engine)
+		e := newSeriesJSON(*engine)
+		j.ThrustSource, j.Engine = "fan speed", &e
 	}
 	if price > 0 {
 		j.MoneyPerYear = num(a.Money)
@@ -315,14 +304,12 @@ func notAnInput(out string, inputs []string) error {
 func writeReportJSON(w io.Writer, r *pipeline.Result) error {
 	f, c, t := r.Fleet, r.Config, r.Type
 	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
-		Fleet: fleetJSON{Tails: len(f.Tails), Flagged: f.Flagged, DeviationPctMedian: num(f.MedianRecentPct),
-			First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last),
-			ExcessFuelKgPerYear: num(f.ExcessFuel), CO2TPerYear: num(f.CO2 / 1000)},
+		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last)},
 		Settings: map[string]any{"type": t.Name, "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
-	if e := r.Engine; len(e.Tails) > 0 {
-		j.Fleet.Engine = &fleetEngineJSON{Tails: len(e.Tails), Flagged: e.Flagged, DeviationPctMedian: num(e.MedianRecentPct),
-			ExcessFuelKgPerYear: num(e.ExcessFuel), CO2TPerYear: num(e.CO2 / 1000)}
+	if len(r.Engine.Tails) > 0 {
+		e := newFleetSeriesJSON(r.Engine)
+		j.Fleet.Engine = &e
 	}
 	for _, a := range f.Tails {
 		var engine *model.TailAssessment
