@@ -186,7 +186,7 @@ func TestBankJSON(t *testing.T) {
 	}
 	for i, r := range rows {
 		if len(r) != 5 {
-			t.Errorf("row %d has fields %v, want the five of DESIGN.md §5", i, r)
+			t.Errorf("row %d has fields %v, want the five the README names for bank", i, r)
 		}
 		if r["bank_deg"] != float64(5*i) {
 			t.Errorf("row %d bank %g, want %d", i, r["bank_deg"], 5*i)
