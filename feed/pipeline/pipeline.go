@@ -49,6 +49,8 @@ type Result struct {
 	Files       []feed.FileResult // one per path, in order
 	Stats       feed.Stats        // rows of all files
 	First, Last time.Time         // span of the accepted snapshots (zero if none)
+
+	tailIdx, engineIdx map[string]int // place of each tail in Fleet.Tails and Engine.Tails
 }
 
 // Failed returns the files that could not be read (missing, no header, a
@@ -67,7 +69,21 @@ func (r *Result) Failed() []feed.FileResult {
 // EngineTail returns the engine series of one tail; false when none of its
 // snapshots had thrust from fan speed.
 func (r *Result) EngineTail(name string) (model.TailAssessment, bool) {
-	for _, a := range r.Engine.Tails {
+	return find(r.Engine.Tails, r.engineIdx, name)
+}
+
+// Tail returns the assessment of one tail.
+func (r *Result) Tail(name string) (model.TailAssessment, bool) {
+	return find(r.Fleet.Tails, r.tailIdx, name)
+}
+
+// find looks a tail up through the index made by assess; a tail the index
+// does not place (the slice reordered since) is searched for.
+func find(tails []model.TailAssessment, idx map[string]int, name string) (model.TailAssessment, bool) {
+	if i, ok := idx[name]; ok && i < len(tails) && tails[i].Tail == name {
+		return tails[i], true
+	}
+	for _, a := range tails {
 		if a.Tail == name {
 			return a, true
 		}
@@ -75,14 +91,13 @@ func (r *Result) EngineTail(name string) (model.TailAssessment, bool) {
 	return model.TailAssessment{}, false
 }
 
-// Tail returns the assessment of one tail.
-func (r *Result) Tail(name string) (model.TailAssessment, bool) {
-	for _, a := range r.Fleet.Tails {
-		if a.Tail == name {
-			return a, true
-		}
+// index maps each tail's name to its place in tails.
+func index(tails []model.TailAssessment) map[string]int {
+	m := make(map[string]int, len(tails))
+	for i, a := range tails {
+		m[a.Tail] = i
 	}
-	return model.TailAssessment{}, false
+	return m
 }
 
 // FlightRecords returns the records of flight f of the tail, in time order:
@@ -273,4 +288,5 @@ func (r *Result) assess(in Input) {
 		}
 	}
 	r.Engine = model.AssessFleet(withEngine, in.Config.EngineSeries())
+	r.tailIdx, r.engineIdx = index(r.Fleet.Tails), index(r.Engine.Tails)
 }

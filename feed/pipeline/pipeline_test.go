@@ -3,6 +3,7 @@ package pipeline
 import (
 	"os"
 	"path/filepath"
+	"slices"
 	"testing"
 
 	"dragdeck/feed"
@@ -133,4 +134,27 @@ func BenchmarkRun(b *testing.B) {
 		rows += Run(input(path)).Stats.Read
 	}
 	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
+}
+
+// Tail finds every tail through its index, and still after the caller
+// reorders Fleet.Tails; a name not in the fleet is not found.
+func TestTailLookup(t *testing.T) {
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, demo.Config{Tails: 5, Days: 30, Seed: 2}); err != nil {
+		t.Fatal(err)
+	}
+	r := Run(input(filepath.Join(dir, demo.SnapshotFile)))
+	check := func(when string) {
+		for _, a := range r.Fleet.Tails {
+			if got, ok := r.Tail(a.Tail); !ok || got.Tail != a.Tail {
+				t.Errorf("%s: Tail(%s) = %s, %v", when, a.Tail, got.Tail, ok)
+			}
+		}
+	}
+	check("as assessed")
+	slices.Reverse(r.Fleet.Tails)
+	check("reordered")
+	if _, ok := r.Tail("NOSUCH"); ok {
+		t.Error("found a tail that is not in the fleet")
+	}
 }
