@@ -40,12 +40,18 @@ type pointJSON struct {
 	EngineDeviationPct *float64 `json:"engine_deviation_pct"`
 }
 
+// The thrust sources, as the JSON and CSV name them.
+const (
+	sourceFanSpeed = "fan speed"
+	sourceFuelFlow = "fuel flow"
+)
+
 // thrustSource names where a point's thrust came from.
 func thrustSource(p model.Point) string {
 	if p.ThrustFromN1 {
-		return "fan speed"
+		return sourceFanSpeed
 	}
-	return "fuel flow"
+	return sourceFuelFlow
 }
 
 func newPointJSON(p model.Point) pointJSON {

@@ -130,13 +130,13 @@ func eventText(e *model.Event) string {
 
 func newTailJSON(a model.TailAssessment, engine *model.TailAssessment, price float64) tailJSON {
 	j := tailJSON{
-		Tail: a.Tail, ThrustSource: "fuel flow", Points: a.Points, Flights: len(a.Flights),
+		Tail: a.Tail, ThrustSource: sourceFuelFlow, Points: a.Points, Flights: len(a.Flights),
 		First: timeOrEmpty(a.First), Last: timeOrEmpty(a.Last),
 		seriesJSON: newSeriesJSON(a), Excluded: a.Excluded, NoLevel: a.Why(),
 	}
 	if engine != nil {
 		e := newSeriesJSON(*engine)
-		j.ThrustSource, j.Engine = "fan speed", &e
+		j.ThrustSource, j.Engine = sourceFanSpeed, &e
 	}
 	if price > 0 {
 		j.MoneyPerYear = num(a.Money)
@@ -344,9 +344,9 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 		if k := len(a.Steps); k > 0 {
 			stepDate, stepSize = a.Steps[k-1].Time.UTC().Format(time.DateOnly), fmtF(a.Steps[k-1].SizePct, 2)
 		}
-		source, eng := "fuel flow", []string{"", "", "", "", "", ""}
+		source, eng := sourceFuelFlow, []string{"", "", "", "", "", ""}
 		if e, ok := r.EngineTail(a.Tail); ok {
-			source = "fan speed"
+			source = sourceFanSpeed
 			eng = []string{fmtF(e.RecentPct, 2), fmtF(e.Drift.Slope, 2), "", "", strings.Join(e.Flags, " "), fmtF(e.ExcessFuel, 0)}
 			if k := len(e.Steps); k > 0 {
 				eng[2], eng[3] = e.Steps[k-1].Time.UTC().Format(time.DateOnly), fmtF(e.Steps[k-1].SizePct, 2)
