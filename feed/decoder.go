@@ -32,7 +32,15 @@ type Decoder struct {
 	flights map[string]string
 
 	stats Stats
+
+	// CheckTail, when set, rejects the rows of tails it gives a reason
+	// for (a tail that the fleet file does not name, §3.4).
+	CheckTail TailCheck
 }
+
+// TailCheck says why a tail's snapshot at time t cannot be analysed, or ""
+// when it can.
+type TailCheck func(tail string, t time.Time) string
 
 // NewDecoder returns a decoder for the file called name (used in errors).
 func NewDecoder(name string) *Decoder {
@@ -268,6 +276,11 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 			e.Reason = fmt.Sprintf("%s (from %g m)", e.Reason, v[colAlt])
 		}
 		return d.reject(n, col, e.Err, e.Reason)
+	}
+	if d.CheckTail != nil {
+		if why := d.CheckTail(rec.Tail, rec.Time); why != "" {
+			return d.reject(n, h.name[colTail], ErrNotInFleet, why)
+		}
 	}
 	d.stats.Read++
 	d.stats.Accepted++

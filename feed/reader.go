@@ -28,6 +28,9 @@ func NewReader(r io.Reader, name string) *Reader {
 	return &Reader{d: NewDecoder(name), br: bufio.NewReaderSize(r, 64<<10)}
 }
 
+// SetTailCheck rejects the rows of the tails that check gives a reason for.
+func (r *Reader) SetTailCheck(check TailCheck) { r.d.CheckTail = check }
+
 // Next returns the next accepted record, or a *RowError for a rejected row
 // (call Next again to go on). At the end it returns io.EOF; a *FileError or
 // an I/O error is final.
@@ -129,7 +132,13 @@ type FileResult struct {
 // ReadFile reads the snapshot file at path, calling accept for each accepted
 // record and reject for each rejected row (either may be nil).
 func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResult {
-	return ReadFileProgress(path, nil, accept, reject)
+	return ReadFileWith(path, ReadOptions{}, accept, reject)
+}
+
+// ReadOptions are the optional parts of reading a file.
+type ReadOptions struct {
+	Progress  *atomic.Int64 // bytes read so far are added to it (may be nil)
+	CheckTail TailCheck     // rows of the tails it refuses are rejected (may be nil)
 }
 
 // TotalSize returns the summed size of the files in bytes (0 for those that
@@ -156,9 +165,8 @@ func (c countingReader) Read(p []byte) (int, error) {
 	return k, err
 }
 
-// ReadFileProgress is ReadFile that also adds the bytes read to progress
-// (when not nil).
-func ReadFileProgress(path string, progress *atomic.Int64, accept func(Record), reject func(*RowError)) FileResult {
+// ReadFileWith is ReadFile with options: a progress count and a tail check.
+func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func(*RowError)) FileResult {
 	res := FileResult{Path: path}
 	f, err := os.Open(path)
 	if err != nil {
@@ -167,10 +175,11 @@ func ReadFileProgress(path string, progress *atomic.Int64, accept func(Record), 
 	}
 	defer f.Close()
 	var src io.Reader = f
-	if progress != nil {
-		src = countingReader{f, progress}
+	if opt.Progress != nil {
+		src = countingReader{f, opt.Progress}
 	}
 	r := NewReader(src, path)
+	r.SetTailCheck(opt.CheckTail)
 	for {
 		rec, err := r.Next()
 		if err == nil {

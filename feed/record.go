@@ -22,14 +22,15 @@ type Record struct {
 // that callers can count or test rejects with errors.Is, as with the
 // encoding/csv and strconv errors.
 var (
-	ErrNotFinite = errors.New("not finite")
-	ErrRange     = errors.New("out of range")
-	ErrNumber    = errors.New("not a number")
-	ErrEmpty     = errors.New("empty")
-	ErrTime      = errors.New("bad time")
-	ErrFields    = errors.New("wrong number of fields")
-	ErrQuote     = errors.New("bad quoting")
-	ErrTooLong   = errors.New("line too long")
+	ErrNotFinite  = errors.New("not finite")
+	ErrRange      = errors.New("out of range")
+	ErrNumber     = errors.New("not a number")
+	ErrEmpty      = errors.New("empty")
+	ErrTime       = errors.New("bad time")
+	ErrFields     = errors.New("wrong number of fields")
+	ErrQuote      = errors.New("bad quoting")
+	ErrTooLong    = errors.New("line too long")
+	ErrNotInFleet = errors.New("tail not in the fleet file")
 )
 
 // RowError is a rejected row: "file:line: column: reason". Reading goes on

@@ -110,29 +110,7 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 	dec := toml.NewDecoder(bytes.NewReader(data))
 	dec.DisallowUnknownFields()
 	if err := dec.Decode(&f); err != nil {
-		var sm *toml.StrictMissingError
-		if errors.As(err, &sm) && len(sm.Errors) > 0 {
-			var msgs []string
-			for i := range sm.Errors {
-				e := &sm.Errors[i]
-				row, _ := e.Position()
-				msgs = append(msgs, fmt.Sprintf("%s:%d: %s: unknown key", name, row, strings.Join(e.Key(), ".")))
-			}
-			return nil, errors.New(strings.Join(msgs, "; "))
-		}
-		var de *toml.DecodeError
-		if errors.As(err, &de) {
-			row, _ := de.Position()
-			key := strings.Join(de.Key(), ".")
-			if kind, ok := typeKeyKinds[key]; ok {
-				return nil, fmt.Errorf("%s:%d: %s: must be %s", name, row, key, kind)
-			}
-			if key != "" {
-				key = " " + key + ":"
-			}
-			return nil, fmt.Errorf("%s:%d:%s %s", name, row, key, strings.TrimPrefix(de.Error(), "toml: "))
-		}
-		return nil, fmt.Errorf("%s: %w", name, err)
+		return nil, tomlError(name, err, typeKeyKinds)
 	}
 	lines := keyLines(data)
 	at := func(key string) string {

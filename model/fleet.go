@@ -33,29 +33,49 @@ type Fleet struct {
 	// figure (kg, kg and currency a year): net, so a tail below its
 	// baseline counts against the others. NaN when no tail has one.
 	ExcessFuel, CO2, Money float64
+	// Types groups the tails by TailTrend.Type: the count and the median
+	// recent level of each, the reference of its tails' level flags.
+	Types map[string]TypeGroup
+}
+
+// TypeGroup is the tails of one type in a fleet.
+type TypeGroup struct {
+	Tails           int
+	MedianRecentPct float64 // NaN when no tail of the type has a recent level
 }
 
 // AssessFleet flags each tail (DESIGN.md §4.9) and prices its excess
 // (§4.10):
 //
-//	level  — recent level ≥ fleet median recent level + LevelPP;
+//	level  — recent level ≥ the median recent level of the tails of its
+//	         own type (TailTrend.Type; one group when unset) + LevelPP;
 //	growth — drift × DriftDays ≥ GrowthPP and the drift's 95 % interval excludes zero;
 //	step   — an increase ≥ StepPP that a later decrease of at least half its size has not undone.
 //
 // Decreases are reported as improvements, never flagged. Excess fuel per
-// year = recent level/100 × median expected fuel flow × CruiseHours;
-// CO2 = 3.16 kg per kg of fuel (ICAO).
+// year = recent level/100 × median expected fuel flow × CruiseHours
+// (the tail's own, when set); CO2 = 3.16 kg per kg of fuel (ICAO).
 func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 	var levels []float64
+	byType := map[string][]float64{}
+	f := Fleet{ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN(), Types: map[string]TypeGroup{}}
 	for _, t := range trends {
+		g := f.Types[t.Type]
+		g.Tails++
+		f.Types[t.Type] = g
 		if !math.IsNaN(t.RecentPct) {
 			levels = append(levels, t.RecentPct)
+			byType[t.Type] = append(byType[t.Type], t.RecentPct)
 		}
 	}
-	f := Fleet{MedianRecentPct: median(levels), ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN()}
+	f.MedianRecentPct = median(levels)
+	for name, g := range f.Types {
+		g.MedianRecentPct = median(byType[name])
+		f.Types[name] = g
+	}
 	for _, t := range trends {
 		a := TailAssessment{TailTrend: t, Flags: []string{}, ExcessFuel: math.NaN(), CO2: math.NaN(), Money: math.NaN()}
-		if !math.IsNaN(t.RecentPct) && !math.IsNaN(f.MedianRecentPct) && t.RecentPct >= f.MedianRecentPct+c.LevelPP {
+		if ref := f.Types[t.Type].MedianRecentPct; !math.IsNaN(t.RecentPct) && !math.IsNaN(ref) && t.RecentPct >= ref+c.LevelPP {
 			a.Flags = append(a.Flags, FlagLevel)
 		}
 		if d := t.Drift; !math.IsNaN(d.Slope) && d.Slope*c.DriftDays/100 >= c.GrowthPP && d.Lo > 0 {
@@ -73,7 +93,11 @@ func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 			}
 		}
 		if !math.IsNaN(t.RecentPct) && !math.IsNaN(t.FuelFlowExpected) {
-			a.ExcessFuel = t.RecentPct / 100 * t.FuelFlowExpected * Hour * c.CruiseHours
+			hours := c.CruiseHours
+			if t.CruiseHours > 0 {
+				hours = t.CruiseHours
+			}
+			a.ExcessFuel = t.RecentPct / 100 * t.FuelFlowExpected * Hour * hours
 			a.CO2 = CO2PerFuel * a.ExcessFuel
 			a.Money = a.ExcessFuel * c.FuelPrice
 			if math.IsNaN(f.ExcessFuel) {

@@ -172,7 +172,13 @@ type Step struct {
 
 // TailTrend is the trend of one tail (DESIGN.md §4.8).
 type TailTrend struct {
-	Tail        string
+	Tail string
+	// Type is the type in force at the tail's last snapshot, the group whose
+	// median its level flag compares with ("" : one group for all);
+	// CruiseHours its hours a year for the cost (0: the configuration's).
+	// The pipeline sets both from the roster.
+	Type        string
+	CruiseHours float64
 	Points      int            // usable snapshots
 	Excluded    map[string]int // snapshots left out, by reason
 	First, Last time.Time

@@ -21,8 +21,11 @@ import (
 
 // Input is what the pipeline reads and how it judges it.
 type Input struct {
-	Paths  []string                 // snapshot files
-	Type   *model.Type              // the baseline of every snapshot
+	Paths []string // snapshot files
+	// Roster gives the type in force for each tail at each time (a fleet
+	// file, §3.4); nil: every snapshot is analysed with Type.
+	Roster *model.Roster
+	Type   *model.Type // the baseline of every snapshot when Roster is nil
 	Events map[string][]model.Event // by tail (may be nil)
 	Config model.TrendConfig
 
@@ -34,7 +37,8 @@ type Input struct {
 
 // Result is the pipeline's answer: the fleet assessed, and what it was made of.
 type Result struct {
-	Type   *model.Type
+	Type   *model.Type   // the one type of a single-type run; nil with a fleet file
+	Roster *model.Roster // the types in force (a single-type roster without a fleet file)
 	Config model.TrendConfig
 	Fleet  model.Fleet                   // every tail's airframe series, most severe first
 	Points map[string][]model.TrendPoint // analysed snapshots by tail, in time order
@@ -44,7 +48,8 @@ type Result struct {
 	Engine       model.Fleet
 	EnginePoints map[string][]model.TrendPoint
 	// Records are the accepted records by tail in time order, when
-	// Input.KeepRecords is set.
+	// Input.KeepRecords is set; their fuel flow carries the fleet file's
+	// correction, as analysed.
 	Records     map[string][]feed.Record
 	Files       []feed.FileResult // one per path, in order
 	Stats       feed.Stats        // rows of all files
@@ -162,7 +167,8 @@ func Run(in Input) *Result {
 			defer wg.Done()
 			for i := range jobs {
 				batch := getBatch()
-				r.Files[i] = feed.ReadFileProgress(in.Paths[i], in.Progress, func(rec feed.Record) {
+				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: r.checkTail}
+				r.Files[i] = feed.ReadFileWith(in.Paths[i], opt, func(rec feed.Record) {
 					batch = append(batch, rec)
 					if len(batch) == batchSize {
 						batches <- batch
@@ -198,11 +204,20 @@ func Run(in Input) *Result {
 }
 
 // FromRecords runs the pipeline on records already read (the built-in
-// demo); st counts their rows.
+// demo); st counts their rows. A record of a tail that the roster does not
+// name is rejected (in.Reject) and counted as the reader would.
 func FromRecords(recs []feed.Record, st feed.Stats, in Input) *Result {
 	r := newResult(in, 0)
 	r.Stats = st
 	for _, rec := range recs {
+		if why := r.checkTail(rec.Tail, rec.Time); why != "" {
+			r.Stats.Accepted--
+			r.Stats.Rejected++
+			if in.Reject != nil {
+				in.Reject(&feed.RowError{File: rec.File, Line: rec.Line, Column: "tail", Reason: why, Err: feed.ErrNotInFleet})
+			}
+			continue
+		}
 		r.add(in, rec)
 	}
 	r.assess(in)
@@ -210,19 +225,61 @@ func FromRecords(recs []feed.Record, st feed.Stats, in Input) *Result {
 }
 
 func newResult(in Input, files int) *Result {
-	r := &Result{Type: in.Type, Config: in.Config, Points: map[string][]model.TrendPoint{}, EnginePoints: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
+	roster, typ := in.Roster, in.Type
+	if roster == nil {
+		roster = model.SingleType(in.Type)
+	} else {
+		typ = roster.Single()
+	}
+	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, EnginePoints: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
 	return r
 }
 
-// add analyses one record and files its point under its tail.
+// checkTail is the reader's tail check: the roster's reason when no entry
+// is in force for the tail at t.
+func (r *Result) checkTail(tail string, t time.Time) string {
+	_, _, why := r.Roster.At(tail, t)
+	return why
+}
+
+// TypeAt returns the type in force for the tail at t (nil when none is).
+func (r *Result) TypeAt(tail string, t time.Time) *model.Type {
+	_, typ, _ := r.Roster.At(tail, t)
+	return typ
+}
+
+// TypeOf returns the type in force at the tail's last snapshot, the one
+// its Cruise and Turns screens and its level flag use (nil for a tail
+// without snapshots in a fleet file).
+func (r *Result) TypeOf(tail string) *model.Type {
+	if t := r.Roster.Single(); t != nil {
+		return t
+	}
+	pts := r.Points[tail]
+	if len(pts) == 0 {
+		return nil
+	}
+	return r.TypeAt(tail, pts[len(pts)-1].Time)
+}
+
+// add analyses one record with the type in force for its tail at its time
+// (its fuel flow corrected by the fleet file's known meter bias) and files
+// its point under its tail.
 func (r *Result) add(in Input, rec feed.Record) {
 	if in.Filter != nil && !in.Filter(rec) {
 		return
 	}
-	p := model.Analyze(in.Type, rec.Snap)
+	e, typ, _ := r.Roster.At(rec.Tail, rec.Time)
+	if typ == nil {
+		return // rejected by the reader's tail check
+	}
+	if e.FuelFlowCorrectionPct != 0 {
+		rec.Snap.FuelFlow *= 1 + e.FuelFlowCorrectionPct/100
+	}
+	p := model.Analyze(typ, rec.Snap)
 	tp := model.NewTrendPoint(rec.Time, rec.Flight, rec.Snap, p)
 	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
 	if p.ThrustFromN1 {
@@ -244,7 +301,10 @@ func (r *Result) add(in Input, rec feed.Record) {
 // trends (tails in parallel), the flags and the cost, of the airframe
 // series and, for the tails with thrust from fan speed, of the engine
 // series. An engine or fuel-flow meter event restarts the engine series,
-// any other the airframe series (model.SplitEvents).
+// any other the airframe series (model.SplitEvents), as does a change of
+// type in the roster (a retrofit). Each tail is grouped with the type in
+// force at its last snapshot, for its level flag, and priced with that
+// entry's cruise hours.
 func (r *Result) assess(in Input) {
 	tails := make([]string, 0, len(r.Points))
 	for tail := range r.Points {
@@ -267,10 +327,17 @@ func (r *Result) assess(in Input) {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
 				}
 				af, en := model.SplitEvents(in.Events[tail])
+				af = append(af, r.Roster.Changes(tail)...)
+				var last model.RosterEntry
+				if len(pts) > 0 {
+					last, _, _ = r.Roster.At(tail, pts[len(pts)-1].Time)
+				}
 				trends[i] = model.AnalyzeTrend(tail, pts, af, in.Config)
+				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
 				if ep := r.EnginePoints[tail]; len(ep) > 0 {
 					sort.SliceStable(ep, func(a, b int) bool { return ep[a].Time.Before(ep[b].Time) })
 					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config.EngineSeries())
+					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
 			}
 		}()

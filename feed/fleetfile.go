@@ -1,0 +1,201 @@
+package feed
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"github.com/pelletier/go-toml/v2"
+	"github.com/pelletier/go-toml/v2/unstable"
+
+	"dragdeck/model"
+)
+
+// fleetFile mirrors the TOML layout of a fleet file (DESIGN.md §3.4).
+type fleetFile struct {
+	Name  string            `toml:"name"`
+	Types map[string]string `toml:"types"` // type name -> type file, relative to the fleet file
+	Tail  []fleetTail       `toml:"tail"`
+}
+
+type fleetTail struct {
+	ID          *string  `toml:"id"`
+	Type        *string  `toml:"type"`
+	Since       any      `toml:"since"` // a TOML date, local date-time or offset date-time
+	CruiseHours *float64 `toml:"cruise_hours_per_year"`
+	FFCorrPct   *float64 `toml:"fuel_flow_correction_pct"`
+}
+
+// LoadFleet reads a fleet file and the type files it names (relative to
+// the fleet file's folder) and returns its roster. Errors read
+// "file:line: key: reason".
+func LoadFleet(path string) (*model.Roster, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("fleet file: %w", err)
+	}
+	dir := filepath.Dir(path)
+	return ParseFleet(path, data, func(rel string) (*model.Type, error) {
+		p := rel
+		if !filepath.IsAbs(p) {
+			p = filepath.Join(dir, rel)
+		}
+		return LoadType(p)
+	})
+}
+
+// ParseFleet decodes a fleet file called name; load reads the type file
+// that a [types] entry names. The TOML decoder is go-toml/v2 in strict mode,
+// as for type files.
+func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, error)) (*model.Roster, error) {
+	var f fleetFile
+	dec := toml.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&f); err != nil {
+		return nil, tomlError(name, err, nil)
+	}
+	lines := keyLines(data)
+	at := func(key string) string {
+		if l, ok := lines[key]; ok {
+			return fmt.Sprintf("%s:%d", name, l)
+		}
+		return name
+	}
+	types := map[string]*model.Type{}
+	for tn, rel := range f.Types {
+		if strings.TrimSpace(tn) == "" || strings.TrimSpace(rel) == "" {
+			return nil, fmt.Errorf("%s: types: a type needs a name and a file", at("types."+tn))
+		}
+		t, err := load(rel)
+		if err != nil {
+			return nil, fmt.Errorf("%s: types.%s: %w", at("types."+tn), tn, err)
+		}
+		types[tn] = t
+	}
+	tailLines := arrayTableLines(data, "tail")
+	entries := make([]model.RosterEntry, 0, len(f.Tail))
+	for i, ft := range f.Tail {
+		e := model.RosterEntry{}
+		if i < len(tailLines) {
+			e.Line = tailLines[i]
+		}
+		where := name
+		if e.Line > 0 {
+			where = fmt.Sprintf("%s:%d", name, e.Line)
+		}
+		if ft.ID == nil {
+			return nil, fmt.Errorf("%s: tail.id: missing (required)", where)
+		}
+		if ft.Type == nil {
+			return nil, fmt.Errorf("%s: tail.type: missing (required) for tail %s", where, *ft.ID)
+		}
+		e.Tail, e.Type = strings.TrimSpace(*ft.ID), strings.TrimSpace(*ft.Type)
+		since, err := tomlTime(ft.Since)
+		if err != nil {
+			return nil, fmt.Errorf("%s: tail.since: %v", where, err)
+		}
+		e.Since = since
+		if ft.CruiseHours != nil {
+			if !(*ft.CruiseHours > 0) {
+				return nil, fmt.Errorf("%s: tail.cruise_hours_per_year: must be > 0, got %g", where, *ft.CruiseHours)
+			}
+			e.CruiseHours = *ft.CruiseHours
+		}
+		if ft.FFCorrPct != nil {
+			e.FuelFlowCorrectionPct = *ft.FFCorrPct
+		}
+		entries = append(entries, e)
+	}
+	r, err := model.NewRoster(f.Name, types, entries)
+	if err != nil {
+		var ee *model.EntryError
+		if errors.As(err, &ee) && ee.Line > 0 {
+			return nil, fmt.Errorf("%s:%d: %w", name, ee.Line, err)
+		}
+		return nil, fmt.Errorf("%s: %w", name, err)
+	}
+	return r, nil
+}
+
+// tomlTime turns a TOML date or date-time into a UTC time; a local date or
+// date-time is taken as UTC. Nil gives the zero time (no since).
+func tomlTime(v any) (time.Time, error) {
+	switch x := v.(type) {
+	case nil:
+		return time.Time{}, nil
+	case toml.LocalDate:
+		return time.Date(x.Year, time.Month(x.Month), x.Day, 0, 0, 0, 0, time.UTC), nil
+	case toml.LocalDateTime:
+		return time.Date(x.Year, time.Month(x.Month), x.Day, x.Hour, x.Minute, x.Second, x.Nanosecond, time.UTC), nil
+	case time.Time:
+		return x.UTC(), nil
+	case string:
+		if t, err := time.Parse("2006-01-02", x); err == nil {
+			return t, nil
+		}
+		if t, err := time.Parse(time.RFC3339, x); err == nil {
+			return t.UTC(), nil
+		}
+		return time.Time{}, fmt.Errorf("%q is not a date such as 2026-03-01", x)
+	}
+	return time.Time{}, fmt.Errorf("must be a date such as 2026-03-01, got %v", v)
+}
+
+// tomlError turns a go-toml decoding error into "name:line: key: reason";
+// kinds gives, for a key, what its value must be ("a number").
+func tomlError(name string, err error, kinds map[string]string) error {
+	var sm *toml.StrictMissingError
+	if errors.As(err, &sm) && len(sm.Errors) > 0 {
+		var msgs []string
+		for i := range sm.Errors {
+			e := &sm.Errors[i]
+			row, _ := e.Position()
+			msgs = append(msgs, fmt.Sprintf("%s:%d: %s: unknown key", name, row, strings.Join(e.Key(), ".")))
+		}
+		return errors.New(strings.Join(msgs, "; "))
+	}
+	var de *toml.DecodeError
+	if errors.As(err, &de) {
+		row, _ := de.Position()
+		key := strings.Join(de.Key(), ".")
+		if kind, ok := kinds[key]; ok {
+			return fmt.Errorf("%s:%d: %s: must be %s", name, row, key, kind)
+		}
+		if key != "" {
+			key = " " + key + ":"
+		}
+		return fmt.Errorf("%s:%d:%s %s", name, row, key, strings.TrimPrefix(de.Error(), "toml: "))
+	}
+	return fmt.Errorf("%s: %w", name, err)
+}
+
+// arrayTableLines returns the 1-based line of each [[key]] header of a
+// TOML document, in order.
+func arrayTableLines(data []byte, key string) []int {
+	var out []int
+	var p unstable.Parser
+	p.Reset(data)
+	for p.NextExpression() {
+		e := p.Expression()
+		if e.Kind != unstable.ArrayTable {
+			continue
+		}
+		var k []string
+		line := 0
+		for it := e.Key(); it.Next(); {
+			n := it.Node()
+			k = append(k, string(n.Data))
+			if line == 0 && n.Raw.Length > 0 {
+				line = p.Shape(n.Raw).Start.Line
+			}
+		}
+		if strings.Join(k, ".") == key {
+			out = append(out, line)
+		}
+	}
+	return out
+}

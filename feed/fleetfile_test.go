@@ -1,0 +1,112 @@
+package feed
+
+import (
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"dragdeck/model"
+)
+
+func TestLoadFleet(t *testing.T) {
+	r, err := LoadFleet(filepath.Join("..", "testdata", "fleets", "mixed", "fleet.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := strings.Join(r.TypeNames(), ","); got != "DT,DT-W,WB" {
+		t.Errorf("types %s", got)
+	}
+	if got := strings.Join(r.Tails(), ","); got != "DT101,DT102,WB201" {
+		t.Errorf("tails %s", got)
+	}
+	at := func(s string) time.Time { v, _ := time.Parse(time.RFC3339, s); return v }
+	cases := []struct {
+		name, tail, at, typ string
+		hours, corr         float64
+	}{
+		{"before the retrofit", "DT102", "2026-02-28T23:59:00Z", "DT", 0, 0},
+		{"after the retrofit", "DT102", "2026-03-01T00:00:00Z", "DT-W", 0, 0},
+		{"own hours and meter correction", "WB201", "2025-01-01T00:00:00Z", "WB", 3100, -0.8},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			e, typ, why := r.At(c.tail, at(c.at))
+			if typ == nil || e.Type != c.typ || e.CruiseHours != c.hours || e.FuelFlowCorrectionPct != c.corr {
+				t.Fatalf("got %+v %q", e, why)
+			}
+		})
+	}
+	if _, _, why := r.At("XX999", at("2026-01-01T00:00:00Z")); !strings.Contains(why, "not in the fleet file") {
+		t.Errorf("unnamed tail: %q", why)
+	}
+}
+
+func TestParseFleetErrors(t *testing.T) {
+	load := func(rel string) (*model.Type, error) {
+		if rel == "missing.toml" {
+			_, err := os.ReadFile("no/such/file.toml")
+			return nil, err
+		}
+		return DemoType(), nil
+	}
+	cases := []struct {
+		name, doc, want string
+	}{
+		{"unknown type", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"Z\"\n", "f.toml:3: tail.type: \"Z\" is not a type"},
+		{"missing type file", "[types]\nA = \"missing.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\n", "f.toml:2: types.A:"},
+		{"same since twice", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\nsince = 2026-01-01\n[[tail]]\nid = \"T\"\ntype = \"A\"\nsince = 2026-01-01\n", "f.toml:7: tail.since: tail T has two entries with since 2026-01-01 (the other on line 3)"},
+		{"missing id", "[types]\nA = \"a.toml\"\n[[tail]]\ntype = \"A\"\n", "f.toml:3: tail.id: missing"},
+		{"missing type", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\n", "f.toml:3: tail.type: missing"},
+		{"bad since", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\nsince = 12\n", "f.toml:3: tail.since: must be a date"},
+		{"hours not positive", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\ncruise_hours_per_year = 0\n", "tail.cruise_hours_per_year: must be > 0"},
+		{"unknown key", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\ncolour = 1\n", "f.toml:6: tail.colour: unknown key"},
+		{"no tails", "[types]\nA = \"a.toml\"\n", "f.toml: tail: no [[tail]] entry"},
+		{"syntax", "[types\n", "f.toml:1:"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := ParseFleet("f.toml", []byte(c.doc), load)
+			if err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Fatalf("err = %v, want %q", err, c.want)
+			}
+		})
+	}
+}
+
+func TestTailCheckRejects(t *testing.T) {
+	csv := "time,tail,weight_kg,alt_ft,mach,fuel_flow_kgph,sat_c\n" +
+		"2026-03-01T10:00:00Z,IN1,65000,37000,0.78,2300,-56\n" +
+		"2026-03-01T10:05:00Z,OUT9,65000,37000,0.78,2300,-56\n"
+	r := NewReader(strings.NewReader(csv), "x.csv")
+	r.SetTailCheck(func(tail string, _ time.Time) string {
+		if tail != "IN1" {
+			return "tail " + tail + " is not in the fleet file"
+		}
+		return ""
+	})
+	var accepted int
+	var rejects []string
+	for {
+		_, err := r.Next()
+		if err == nil {
+			accepted++
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			rejects = append(rejects, re.Error())
+			if !errors.Is(err, ErrNotInFleet) {
+				t.Errorf("reject %v is not ErrNotInFleet", err)
+			}
+			continue
+		}
+		break
+	}
+	st := r.Stats()
+	if accepted != 1 || len(rejects) != 1 || rejects[0] != "x.csv:3: tail: tail OUT9 is not in the fleet file" || st.Read != 2 || st.Rejected != 1 {
+		t.Fatalf("accepted %d, rejects %q, stats %+v", accepted, rejects, st)
+	}
+}
