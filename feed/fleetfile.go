@@ -199,3 +199,16 @@ func arrayTableLines(data []byte, key string) []int {
 	}
 	return out
 }
+
+// RosterCheck is the reader's tail check of a roster: a snapshot of a tail
+// that has no entry in force at its time is rejected with the roster's
+// reason. Nil for a single-type roster, which accepts every tail.
+func RosterCheck(r *model.Roster) TailCheck {
+	if r == nil || r.Single() != nil {
+		return nil
+	}
+	return func(tail string, t time.Time) string {
+		_, _, why := r.At(tail, t)
+		return why
+	}
+}

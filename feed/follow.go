@@ -20,6 +20,8 @@ type Follower struct {
 	Poll   time.Duration // how often to look for new data (default 50 ms)
 	Clock  Clock         // default RealClock
 	Notice func(string)  // what happened to the file (default: nothing)
+	// CheckTail rejects the rows of the tails it refuses (may be nil).
+	CheckTail TailCheck
 
 	f       *os.File
 	info    os.FileInfo
@@ -87,6 +89,7 @@ func (fl *Follower) close() {
 func (fl *Follower) restart() {
 	fl.off, fl.partial, fl.skip, fl.line = 0, fl.partial[:0], false, 0
 	fl.dec = NewDecoder(fl.Path)
+	fl.dec.CheckTail = fl.CheckTail
 }
 
 // step does one round of work and reports whether it read anything.

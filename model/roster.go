@@ -155,3 +155,28 @@ func (r *Roster) Changes(tail string) []Event {
 	}
 	return out
 }
+
+// Analyze analyses s, a snapshot of tail at time t, with the type in force
+// and the fuel flow corrected by the entry's known meter bias
+// (FuelFlow × (1 + FuelFlowCorrectionPct/100)). It returns the point, the
+// corrected snapshot and the type; a nil type, with the reason, when no
+// entry is in force.
+func (r *Roster) Analyze(tail string, t time.Time, s Snapshot) (Point, Snapshot, *Type, string) {
+	e, typ, why := r.At(tail, t)
+	if typ == nil {
+		return Point{}, s, nil, why
+	}
+	if e.FuelFlowCorrectionPct != 0 {
+		s.FuelFlow *= 1 + e.FuelFlowCorrectionPct/100
+	}
+	return Analyze(typ, s), s, typ, ""
+}
+
+// Label names the roster for a header: the type's name for a single type,
+// else the fleet file's name and its types.
+func (r *Roster) Label() string {
+	if r.single != nil {
+		return r.single.Name
+	}
+	return fmt.Sprintf("%s (%s)", r.Name, strings.Join(r.TypeNames(), ", "))
+}

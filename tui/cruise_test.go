@@ -47,7 +47,7 @@ func TestCruiseOwnPolarIsTheTailsLevel(t *testing.T) {
 func TestCruiseOwnPolarUnderReplay(t *testing.T) {
 	d := demoFleet(t)
 	recs := d.Records[d.Fleet.Tails[0].Tail][:6]
-	m := New(t.Context(), nil, nil, WithReplay(d.Type, d.Config, recs, 0))
+	m := New(t.Context(), nil, nil, WithReplay(d.Roster, d.Config, recs, 0))
 	m.Update(tea.WindowSizeMsg{Width: 100, Height: 30})
 	m.flight.seek(3)
 	played, _ := m.flight.flightSpan()

@@ -35,6 +35,7 @@ func DemoData() (*Data, error) {
 // selected tail.
 type Condition struct {
 	Tail      string
+	Type      *model.Type // the tail's type at this condition (nil: the run's)
 	Weight    float64 // kg
 	Altitude  float64 // m, pressure altitude
 	Mach      float64
@@ -63,7 +64,7 @@ func defaultCondition(t *model.Type) Condition {
 	if t != nil {
 		m = math.Min(m, t.MMO-0.02)
 	}
-	return Condition{Weight: 65000, Altitude: 35000 * model.Foot, Mach: m, ExcessPct: math.NaN()}
+	return Condition{Type: t, Weight: 65000, Altitude: 35000 * model.Foot, Mach: m, ExcessPct: math.NaN()}
 }
 
 // tailCondition is a tail's typical cruise (the medians of its usable

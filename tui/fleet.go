@@ -263,7 +263,7 @@ func (s *fleetScreen) render() {
 	if !d.First.IsZero() {
 		span = d.First.Format("2006-01-02") + " … " + d.Last.Format("2006-01-02") + " UTC"
 	}
-	b.WriteString(s.st.Muted.Render(truncate(clean(d.Source)+" · "+d.Type.Name, s.w)) + "\n")
+	b.WriteString(s.st.Muted.Render(truncate(clean(d.Source)+" · "+d.Roster.Label(), s.w)) + "\n")
 	counts := fmt.Sprintf("%d tails · %d snapshots · %d rejected · %s", len(d.Fleet.Tails), d.Stats.Accepted, d.Stats.Rejected, span)
 	b.WriteString(s.st.Muted.Render(truncate(counts, s.w)) + "\n")
 	summary := fmt.Sprintf("fleet median %s %% · ", fmtSigned(d.Fleet.MedianRecentPct, 2))

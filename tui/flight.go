@@ -54,7 +54,8 @@ var after = tea.Tick
 // flightScreen replays a flight (paced by a feed.Player) or follows a live
 // file.
 type flightScreen struct {
-	t       *model.Type
+	roster  *model.Roster
+	t       *model.Type // the type of the current snapshot
 	cfg     model.TrendConfig
 	st      Styles
 	w, h    int
@@ -114,8 +115,8 @@ func (s *flightScreen) SetSize(w, h int) {
 // Replay starts a replay of recs (time order) at speed, playing. cfg says
 // which snapshots the trend leaves out; level is the tail's recent
 // deviation, % (NaN when unknown).
-func (s *flightScreen) Replay(t *model.Type, cfg model.TrendConfig, tail, flight string, recs []feed.Record, speed, level float64) tea.Cmd {
-	s.t, s.cfg, s.tail, s.flight, s.recs, s.live, s.source, s.notice = t, cfg, tail, flight, recs, false, "", ""
+func (s *flightScreen) Replay(r *model.Roster, cfg model.TrendConfig, tail, flight string, recs []feed.Record, speed, level float64) tea.Cmd {
+	s.roster, s.t, s.cfg, s.tail, s.flight, s.recs, s.live, s.source, s.notice = r, firstType(r, recs), cfg, tail, flight, recs, false, "", ""
 	s.speed, s.level = speed, level
 	s.player = feed.NewPlayer(recs, speed)
 	s.player.MaxWait = maxReplayWait
@@ -128,8 +129,8 @@ func (s *flightScreen) Replay(t *model.Type, cfg model.TrendConfig, tail, flight
 }
 
 // Live switches the screen to records arriving from source.
-func (s *flightScreen) Live(t *model.Type, cfg model.TrendConfig, source string) {
-	s.t, s.cfg, s.source, s.live, s.playing, s.level = t, cfg, source, true, false, math.NaN()
+func (s *flightScreen) Live(r *model.Roster, cfg model.TrendConfig, source string) {
+	s.roster, s.t, s.cfg, s.source, s.live, s.playing, s.level = r, firstType(r, nil), cfg, source, true, false, math.NaN()
 	s.recs, s.points, s.left, s.pos, s.tail, s.flight, s.notice = nil, nil, nil, 0, "", "", ""
 	s.player = nil
 	s.gen++
@@ -144,14 +145,34 @@ func (s *flightScreen) current() (feed.Record, model.Point, bool) {
 	return s.recs[s.pos-1], s.points[s.pos-1], true
 }
 
+// firstType is the type shown before a snapshot is: that of the first
+// record, or the roster's single type, or its first type by name.
+func firstType(r *model.Roster, recs []feed.Record) *model.Type {
+	if len(recs) > 0 {
+		if _, t, _ := r.At(recs[0].Tail, recs[0].Time); t != nil {
+			return t
+		}
+	}
+	if t := r.Single(); t != nil {
+		return t
+	}
+	return r.Types[r.TypeNames()[0]]
+}
+
 // seek shows the first n snapshots.
 func (s *flightScreen) seek(n int) {
 	n = max(0, min(n, len(s.recs)))
 	for len(s.points) < n {
 		r := s.recs[len(s.points)]
-		p := model.Analyze(s.t, r.Snap)
+		p, snap, typ, why := s.roster.Analyze(r.Tail, r.Time, r.Snap)
+		if typ == nil { // the readers reject such rows; never analysed
+			p.DragDevPct = math.NaN()
+		}
 		s.points = append(s.points, p)
-		s.left = append(s.left, s.cfg.Usable(model.NewTrendPoint(r.Time, r.Flight, r.Snap, p)))
+		if why == "" {
+			why = s.cfg.Usable(model.NewTrendPoint(r.Time, r.Flight, snap, p))
+		}
+		s.left = append(s.left, why)
 	}
 	s.points, s.left = s.points[:n], s.left[:n]
 	s.pos = n
@@ -168,6 +189,9 @@ func (s *flightScreen) update() {
 	s.optOK = false
 	r, _, ok := s.current()
 	if ok {
+		if _, typ, _ := s.roster.At(r.Tail, r.Time); typ != nil {
+			s.t = typ
+		}
 		s.excessPct, s.ownFrom = s.level, levelFrom
 		if math.IsNaN(s.level) {
 			played, _ := s.flightSpan()

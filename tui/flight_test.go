@@ -84,7 +84,7 @@ func TestFlightPacingIsThePlayers(t *testing.T) {
 	recs[3].Time = recs[2].Time.Add(10 * time.Hour)
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)
-	cmd := s.Replay(d.Type, d.Config, "T", "F", recs, 60, math.NaN())
+	cmd := s.Replay(d.Roster, d.Config, "T", "F", recs, 60, math.NaN())
 	for cmd != nil {
 		_, cmd = s.Update(cmd())
 	}
@@ -107,7 +107,7 @@ func TestFlightMarksLeftOut(t *testing.T) {
 	recs[1].Snap.Accel = 1.2 * d.Config.MaxAccel // a speed change
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)
-	s.Replay(d.Type, d.Config, "T", "F", recs, 0, math.NaN())
+	s.Replay(d.Roster, d.Config, "T", "F", recs, 0, math.NaN())
 	s.seek(2)
 	if !strings.Contains(s.View(), "left out of the trend: "+model.ExcludeAccel) {
 		t.Errorf("the turning snapshot is not marked:\n%s", s.View())
@@ -138,7 +138,7 @@ func TestFlightChartsTheCurrentFlight(t *testing.T) {
 	}
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)
-	s.Replay(d.Type, d.Config, "A", "A1", recs, 0, math.NaN())
+	s.Replay(d.Roster, d.Config, "A", "A1", recs, 0, math.NaN())
 	s.seek(7) // up to A2's second snapshot
 	played, last := s.flightSpan()
 	if want := []int{4, 6}; !slices.Equal(played, want) {
@@ -173,7 +173,7 @@ func TestFlightThrustSource(t *testing.T) {
 	recs[0].Snap.N1 = 83.5
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)
-	s.Replay(ty, d.Config, "T", "F", recs, 0, math.NaN())
+	s.Replay(model.SingleType(ty), d.Config, "T", "F", recs, 0, math.NaN())
 	want := model.Analyze(ty, recs[0].Snap)
 	if l, ok := lineWith(s.View(), "thrust from fan speed"); !ok || !strings.Contains(l, fmt.Sprintf("engine %+.2f %%", want.EngineDevPct)) {
 		t.Errorf("fan speed snapshot: %q\n%s", l, s.View())
@@ -204,7 +204,7 @@ func TestFlightBarsGlyphs(t *testing.T) {
 // Opened from replay, Fleet and Tail say why they are empty.
 func TestReplayOnlyScreensSayWhy(t *testing.T) {
 	d := demoFleet(t)
-	m := New(t.Context(), nil, nil, WithReplay(d.Type, d.Config, d.Records[d.Fleet.Tails[0].Tail][:3], 0))
+	m := New(t.Context(), nil, nil, WithReplay(d.Roster, d.Config, d.Records[d.Fleet.Tails[0].Tail][:3], 0))
 	m.Update(tea.WindowSizeMsg{Width: 80, Height: 24})
 	for _, scr := range []int{scrFleet, scrTail} {
 		m.activate(scr)

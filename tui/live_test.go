@@ -22,7 +22,7 @@ func TestFollowLive(t *testing.T) {
 	os.WriteFile(path, []byte(head+"2026-03-01T10:00:00Z,DD101,F7,65000,35000,0.78,-54,2400\n"), 0o644)
 	ctx, cancel := context.WithCancel(context.Background())
 	defer cancel()
-	m := New(ctx, nil, nil, WithLive(feed.DemoType(), model.DefaultTrendConfig(), path, ""))
+	m := New(ctx, nil, nil, WithLive(model.SingleType(feed.DemoType()), model.DefaultTrendConfig(), path, ""))
 	m.Update(tea.WindowSizeMsg{Width: 100, Height: 30})
 	pump := func(want int) {
 		t.Helper()

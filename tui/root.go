@@ -76,28 +76,28 @@ type Option func(*Model)
 // WithReplay opens the Flight screen on a replay of recs at speed. cfg says
 // which snapshots the trend leaves out. Fleet and Tail say that they need
 // a fleet.
-func WithReplay(t *model.Type, cfg model.TrendConfig, recs []feed.Record, speed float64) Option {
+func WithReplay(r *model.Roster, cfg model.TrendConfig, recs []feed.Record, speed float64) Option {
 	return func(m *Model) {
 		tail, flight := "", ""
 		if len(recs) > 0 {
 			tail, flight = recs[0].Tail, recs[0].Flight
 		}
 		m.active = scrFlight
-		m.start = m.flight.Replay(t, cfg, tail, flight, recs, speed, math.NaN())
-		m.cond = defaultCondition(t)
+		m.start = m.flight.Replay(r, cfg, tail, flight, recs, speed, math.NaN())
+		m.cond = defaultCondition(m.flight.t)
 		m.noFleet("replaying one flight")
 	}
 }
 
 // WithLive opens the Flight screen following the file at path.
-func WithLive(t *model.Type, cfg model.TrendConfig, path string, tail string) Option {
+func WithLive(r *model.Roster, cfg model.TrendConfig, path string, tail string) Option {
 	return func(m *Model) {
 		m.active = scrFlight
-		m.flight.Live(t, cfg, path)
+		m.flight.Live(r, cfg, path)
 		m.live = make(chan tea.Msg, 1024)
 		ch, ctx := m.live, m.ctx
 		go func() {
-			fl := &feed.Follower{Path: path, Notice: func(s string) { ch <- liveNoticeMsg{s} }}
+			fl := &feed.Follower{Path: path, CheckTail: feed.RosterCheck(r), Notice: func(s string) { ch <- liveNoticeMsg{s} }}
 			err := fl.Run(ctx, func(r feed.Record) error {
 				if tail == "" || r.Tail == tail {
 					ch <- liveRecordMsg{r}
@@ -107,7 +107,7 @@ func WithLive(t *model.Type, cfg model.TrendConfig, path string, tail string) Op
 			ch <- liveEndMsg{err}
 		}()
 		m.start = m.waitLive()
-		m.cond = defaultCondition(t)
+		m.cond = defaultCondition(m.flight.t)
 		m.noFleet("following a live file")
 	}
 }
@@ -151,11 +151,11 @@ func (m *Model) setData(d *Data) {
 	if tail, ok := m.fleet.selected(); ok && m.active != scrFlight {
 		m.tail.SetTail(tail)
 		if a, ok := d.Tail(tail); ok {
-			m.cond = tailCondition(d.Type, a)
+			m.cond = tailCondition(d.TypeOf(tail), a)
 		}
 	}
-	m.cruise.SetCondition(d.Type, m.cond)
-	m.turns.SetCondition(d.Type, m.cond)
+	m.cruise.SetCondition(m.typ(), m.cond)
+	m.turns.SetCondition(m.typ(), m.cond)
 }
 
 // Err is the error that stopped loading, if any.
@@ -217,6 +217,7 @@ func (m *Model) activate(i int) {
 			c.Weight, c.Altitude, c.Mach = r.Snap.Weight, r.Snap.Altitude, r.Snap.Mach
 			c.ISADev = model.AirAt(r.Snap.Altitude, r.Snap.SAT).ISADev()
 			c.Tail, c.ExcessPct, c.ExcessFrom = r.Tail, m.flight.excessPct, m.flight.ownFrom
+			c.Type = m.flight.t
 			m.cond = c
 		}
 		m.cruise.SetCondition(t, m.cond)
@@ -224,11 +225,22 @@ func (m *Model) activate(i int) {
 	}
 }
 
+// typ is the type of the condition shown: its tail's, else the run's one
+// type, else the Flight screen's.
 func (m *Model) typ() *model.Type {
-	if m.data != nil {
+	if m.cond.Type != nil {
+		return m.cond.Type
+	}
+	if m.data != nil && m.data.Type != nil {
 		return m.data.Type
 	}
-	return m.flight.t
+	if m.flight.t != nil {
+		return m.flight.t
+	}
+	if m.data != nil {
+		return firstType(m.data.Roster, nil)
+	}
+	return nil
 }
 
 func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
@@ -254,7 +266,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case openTailMsg:
 		m.tail.SetTail(msg.tail)
 		if a, ok := m.data.Tail(msg.tail); ok {
-			m.cond = tailCondition(m.data.Type, a)
+			m.cond = tailCondition(m.data.TypeOf(msg.tail), a)
 		}
 		m.activate(scrTail)
 		return m, nil
@@ -263,7 +275,7 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		if a, ok := m.data.Tail(msg.tail); ok {
 			level = a.RecentPct
 		}
-		cmd := m.flight.Replay(m.data.Type, m.data.Config, msg.tail, msg.flight, msg.recs, m.flight.speed, level)
+		cmd := m.flight.Replay(m.data.Roster, m.data.Config, msg.tail, msg.flight, msg.recs, m.flight.speed, level)
 		m.activate(scrFlight)
 		return m, cmd
 	case conditionMsg:

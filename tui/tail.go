@@ -254,7 +254,7 @@ func (s *tailScreen) polarChart(w, h int) string {
 	if len(s.polar) == 0 {
 		return placeholder(w, h, "no usable snapshots since "+s.a.PolarFrom.Format("2006-01-02"))
 	}
-	t := s.data.Type
+	t := s.data.TypeOf(s.a.Tail)
 	pts := make([][2]float64, len(s.polar))
 	xs, ys := make([]float64, len(s.polar)), make([]float64, len(s.polar))
 	for i, p := range s.polar {
@@ -331,7 +331,7 @@ func (s *tailScreen) facts(w, h int) string {
 		add(s.st.Text, "       %s a year at %g per kg", fmtSigned(a.Money, 0), c.FuelPrice)
 	}
 	if p := a.Polar; a.PolarErr == nil {
-		add(s.st.Muted, "polar  since %s: CD0 %.5f (base %.5f) · k %.4f (%.4f)", a.PolarFrom.Format("2006-01-02"), p.CD0, s.data.Type.CD0, p.K, s.data.Type.K())
+		add(s.st.Muted, "polar  since %s: CD0 %.5f (base %.5f) · k %.4f (%.4f)", a.PolarFrom.Format("2006-01-02"), p.CD0, s.data.TypeOf(a.Tail).CD0, p.K, s.data.TypeOf(a.Tail).K())
 	} else {
 		add(s.st.Muted, "polar  since %s: no fit (%v)", a.PolarFrom.Format("2006-01-02"), a.PolarErr)
 	}

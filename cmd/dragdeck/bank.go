@@ -29,7 +29,7 @@ flow is TSFC times the extra drag. Without --sat-c the ISA temperature is used.
 Rows where CL × 1.3 exceeds the type's buffet-onset CL (the 1.3 g margin is
 not kept) are marked "! beyond buffet".`,
 		"dragdeck bank --weight-kg 65000 --alt-ft 35000 --mach 0.78")
-	typ := fs.typeFlag()
+	types := fs.oneTypeFlags()
 	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
 	alt := fs.float("alt-ft", "H", 0, true, "pressure altitude, ft")
 	mach := fs.float("mach", "M", 0, true, "Mach number")
@@ -38,7 +38,7 @@ not kept) are marked "! beyond buffet".`,
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
-	t, err := loadType(*typ)
+	t, err := types.one()
 	if err != nil {
 		return err
 	}

@@ -10,18 +10,29 @@ import (
 )
 
 func runCheck(e *env, args []string) error {
-	fs := newFlagSet("check", "dragdeck check PATH...",
+	fs := newFlagSet("check", "dragdeck check [--fleet FILE] PATH...",
 		`Validates snapshot files (or every *.csv in a folder) against the snapshot
 format (see the README) and lists every rejected row as file:line: column: reason, then the counts per
 reason. Every row is either accepted or rejected: read = accepted + rejected.
 Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
-(missing, no header, a required column missing).`,
+(missing, no header, a required column missing). With --fleet, the rows of
+tails that the fleet file does not name (or names only from a later date)
+are rejected too, as every reading command rejects them.`,
 		"dragdeck check exports/2026-03/")
+	fleet := fs.str("fleet", "FILE", "", "fleet file (TOML): also reject the rows of tails it does not name")
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
 	if fs.NArg() == 0 {
 		return usageErrorf("give at least one snapshot file or folder (see 'dragdeck check --help')")
+	}
+	var check feed.TailCheck
+	if *fleet != "" {
+		r, err := feed.LoadFleet(*fleet)
+		if err != nil {
+			return usageErrorf("--fleet: %v", err)
+		}
+		check = feed.RosterCheck(r)
 	}
 	// Each path on its own, so that a missing one does not stop the others
 	// from being checked.
@@ -39,7 +50,7 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 	byReason := map[string]int{}
 	var total feed.Stats
 	for _, path := range files {
-		res := feed.ReadFile(path, nil, func(r *feed.RowError) {
+		res := feed.ReadFileWith(path, feed.ReadOptions{CheckTail: check}, nil, func(r *feed.RowError) {
 			fmt.Fprintln(e.stdout, r)
 			byReason[r.Column+": "+r.Err.Error()]++
 		})

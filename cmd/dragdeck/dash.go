@@ -38,14 +38,14 @@ func demoDashboard(e *env) error {
 }
 
 func runDash(e *env, args []string) error {
-	fs := newFlagSet("dash", "dragdeck dash [--type FILE] [--events FILE] PATH...",
+	fs := newFlagSet("dash", "dragdeck dash [--type FILE | --fleet FILE] [--events FILE] PATH...",
 		`Opens the dashboard on snapshot files or folders (every *.csv inside): the
 Fleet screen lists every tail, most severe first; enter opens a tail, where
 enter on a flight replays it; tab moves between the Fleet, Tail, Flight,
 Cruise, Turns and About screens; ? lists every key; q quits. The files load in
 the background. The trend settings and limits are those of 'dragdeck report'.`,
 		"dragdeck dash --events fleet/events.csv fleet/snapshots/")
-	typ := fs.typeFlag()
+	types := fs.typeFlags()
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note)")
 	trend := trendFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
@@ -55,7 +55,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	if err != nil {
 		return err
 	}
-	t, files, err := typeAndFiles(fs, *typ)
+	ros, files, err := typeAndFiles(fs, types)
 	if err != nil {
 		return err
 	}
@@ -72,7 +72,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		source = fmt.Sprintf("%s and %d more", files[0], len(files)-1)
 	}
 	load := func() (*tui.Data, error) {
-		r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Events: evs, Config: c, KeepRecords: true, Progress: progress})
+		r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Events: evs, Config: c, KeepRecords: true, Progress: progress})
 		failed := r.Failed()
 		if len(failed) == len(files) {
 			return nil, failed[0].Err

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"sort"
 	"strings"
 	"time"
 
@@ -43,7 +44,7 @@ func parseDay(s string, end bool) (time.Time, error) {
 }
 
 func runFit(e *env, args []string) error {
-	fs := newFlagSet("fit", "dragdeck fit [--type FILE] [--tail ID]... [--from DATE] [--to DATE] PATH... > fitted.toml",
+	fs := newFlagSet("fit", "dragdeck fit [--type FILE | --fleet FILE] [--tail ID]... [--from DATE] [--to DATE] PATH... > fitted.toml",
 		`Fits a baseline drag polar CD = CD0 + k CL^2 by least squares to the measured
 drag of the chosen tails and dates (the type's wave drag is removed first, and
 points beyond the usual limits of bank, vertical speed, acceleration and
@@ -52,7 +53,7 @@ cd0 and oswald (from k = 1/(pi e AR)), the fit's standard errors, residual
 spread and CL^2 span in comments. Refuses when the points do not span enough
 CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 		"dragdeck fit --tail DD104 --tail DD108 --from 2026-01-01 fleet/snapshots/ > dd200-fitted.toml")
-	typ := fs.typeFlag()
+	types := fs.typeFlags()
 	var tails listFlag
 	fs.Var(&tails, "tail", "a tail to include (repeat, or separate with commas); default all")
 	fs.argNames["tail"] = "ID"
@@ -73,7 +74,7 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 			return usageErrorf("--to: %v", err)
 		}
 	}
-	t, files, err := typeAndFiles(fs, *typ)
+	ros, files, err := typeAndFiles(fs, types)
 	if err != nil {
 		return err
 	}
@@ -84,7 +85,7 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 	// The pipeline reads and analyses the chosen snapshots; the polar
 	// points are its usable ones (model.PolarPoints), as on the Tail screen.
 	c := model.DefaultTrendConfig()
-	r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Config: c, Filter: func(r feed.Record) bool {
+	r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Config: c, Filter: func(r feed.Record) bool {
 		return (len(want) == 0 || want[r.Tail]) && (t0.IsZero() || !r.Time.Before(t0)) && (t1.IsZero() || !r.Time.After(t1))
 	}})
 	if failed := r.Failed(); len(failed) > 0 {
@@ -105,6 +106,10 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 		if !seen[tl] {
 			fmt.Fprintf(e.stderr, "dragdeck fit: no usable snapshots of tail %s in the chosen dates\n", tl)
 		}
+	}
+	t, err := fitType(r)
+	if err != nil {
+		return err
 	}
 	f, err := model.FitPolar(pts)
 	if err != nil {
@@ -143,4 +148,41 @@ func orDash(s string) string {
 		return "-"
 	}
 	return s
+}
+
+// fitType returns the one type that the chosen snapshots fly: a fit is of
+// one type at a time, so snapshots of several types (with --fleet: tails of
+// different types, or a retrofit inside the dates) are refused, naming them.
+func fitType(r *pipeline.Result) (*model.Type, error) {
+	tails := map[string][]string{} // the roster's type name -> tails
+	var only *model.Type
+	for tail, pts := range r.Points {
+		seen := map[string]bool{}
+		for _, p := range pts {
+			e, t, _ := r.Roster.At(tail, p.Time)
+			if t == nil || seen[e.Type] {
+				continue
+			}
+			seen[e.Type] = true
+			only = t
+			tails[e.Type] = append(tails[e.Type], tail)
+		}
+	}
+	if len(tails) <= 1 {
+		if only == nil {
+			only = r.Type
+		}
+		if only == nil {
+			return nil, usageErrorf("cannot fit: no snapshots chosen")
+		}
+		return only, nil
+	}
+	names := make([]string, 0, len(tails))
+	for n, ts := range tails {
+		sort.Strings(ts)
+		names = append(names, fmt.Sprintf("%s: %s", n, strings.Join(ts, " ")))
+	}
+	sort.Strings(names)
+	return nil, usageErrorf("the chosen snapshots fly %d types (%s); fit one type at a time: choose its tails with --tail and, around a retrofit, the dates with --from and --to",
+		len(tails), strings.Join(names, "; "))
 }

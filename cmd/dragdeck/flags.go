@@ -192,10 +192,68 @@ func loadType(path string) (*model.Type, error) {
 	return t, nil
 }
 
-// typeAndFiles loads --type and expands the PATH arguments, the preamble of
-// every command that reads snapshot files.
-func typeAndFiles(fs *flagSet, typ string) (*model.Type, []string, error) {
-	t, err := loadType(typ)
+// typeChoice is the --type and --fleet flags of a command: one type for
+// every tail, or a fleet file that gives each tail its type.
+type typeChoice struct{ typ, fleet *string }
+
+// typeFlags declares --type and --fleet.
+func (f *flagSet) typeFlags() typeChoice {
+	return typeChoice{f.typeFlag(), f.str("fleet", "FILE", "",
+		"fleet file (TOML): the type of each tail, a retrofit from its date on, per-tail cruise hours and meter correction; in place of --type")}
+}
+
+// oneTypeFlags declares --type and --fleet for a command that analyses one
+// condition: with --fleet, --type names one of its types.
+func (f *flagSet) oneTypeFlags() typeChoice {
+	return typeChoice{f.typeFlag(), f.str("fleet", "FILE", "",
+		"fleet file (TOML); then --type NAME picks one of its types (not needed when it has one)")}
+}
+
+// roster loads --fleet, or --type as a single-type roster; giving both is
+// a usage error.
+func (c typeChoice) roster() (*model.Roster, error) {
+	if *c.fleet == "" {
+		t, err := loadType(*c.typ)
+		if err != nil {
+			return nil, err
+		}
+		return model.SingleType(t), nil
+	}
+	if *c.typ != "" {
+		return nil, usageErrorf("--type and --fleet: give one (a fleet file names the type of each tail)")
+	}
+	r, err := feed.LoadFleet(*c.fleet)
+	if err != nil {
+		return nil, usageErrorf("--fleet: %v", err)
+	}
+	return r, nil
+}
+
+// one returns the type of a command that analyses one condition: --type,
+// or with --fleet the fleet file's type that --type names (the only one
+// when it has one).
+func (c typeChoice) one() (*model.Type, error) {
+	if *c.fleet == "" {
+		return loadType(*c.typ)
+	}
+	r, err := feed.LoadFleet(*c.fleet)
+	if err != nil {
+		return nil, usageErrorf("--fleet: %v", err)
+	}
+	names := r.TypeNames()
+	if *c.typ == "" && len(names) == 1 {
+		return r.Types[names[0]], nil
+	}
+	if t := r.Types[*c.typ]; t != nil {
+		return t, nil
+	}
+	return nil, usageErrorf("--type: with --fleet, name one of its types: %s", strings.Join(names, ", "))
+}
+
+// typeAndFiles loads --type or --fleet and expands the PATH arguments, the
+// preamble of every command that reads snapshot files.
+func typeAndFiles(fs *flagSet, c typeChoice) (*model.Roster, []string, error) {
+	r, err := c.roster()
 	if err != nil {
 		return nil, nil, err
 	}
@@ -203,7 +261,7 @@ func typeAndFiles(fs *flagSet, typ string) (*model.Type, []string, error) {
 	if err != nil {
 		return nil, nil, err
 	}
-	return t, files, nil
+	return r, files, nil
 }
 
 // readEvents reads --events, if given.

@@ -85,7 +85,7 @@ beyond the 1.3 g buffet margin, or a negative parasite drag (thrust that does
 not cover induced and wave drag), is warned about on stderr and listed in
 the JSON "warnings".`,
 		"dragdeck point --weight-kg 65000 --alt-ft 35000 --mach 0.78 --fuel-flow-kgph 2350 --sat-c -54")
-	typ := fs.typeFlag()
+	types := fs.oneTypeFlags()
 	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
 	alt := fs.float("alt-ft", "H", 0, true, "pressure altitude, ft")
 	mach := fs.float("mach", "M", 0, true, "Mach number")
@@ -99,7 +99,7 @@ the JSON "warnings".`,
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
-	t, err := loadType(*typ)
+	t, err := types.one()
 	if err != nil {
 		return err
 	}

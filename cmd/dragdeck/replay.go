@@ -11,7 +11,7 @@ import (
 )
 
 func runReplay(e *env, args []string) error {
-	fs := newFlagSet("replay", "dragdeck replay [--type FILE] [--speed X] [--tail ID] [--flight ID] [--max-wait D] PATH...",
+	fs := newFlagSet("replay", "dragdeck replay [--type FILE | --fleet FILE] [--speed X] [--tail ID] [--flight ID] [--max-wait D] PATH...",
 		`Plays the snapshots of one or more files (or folders of *.csv) in time order,
 paced at X times real time, and analyses each one. --speed 0 plays without
 waiting. Long gaps (between flights, overnight) are shortened to --max-wait.
@@ -19,7 +19,7 @@ When stdout is not a terminal, each snapshot is one JSON object per line: time,
 tail, flight and the fields of 'dragdeck point --json'. Rejected rows go to
 stderr.`,
 		"dragdeck replay --tail DD101 --speed 0 fleet/snapshots/ | jq .excess_drag_counts")
-	typ := fs.typeFlag()
+	types := fs.typeFlags()
 	speed := fs.float("speed", "X", 60, false, "times real time; 0 plays without waiting")
 	tail := fs.str("tail", "ID", "", "only this tail")
 	flight := fs.str("flight", "ID", "", "only this flight")
@@ -31,11 +31,11 @@ stderr.`,
 	if math.IsNaN(*speed) || math.IsInf(*speed, 0) || *speed < 0 {
 		return usageErrorf("--speed: must be ≥ 0, got %g", *speed)
 	}
-	t, files, err := typeAndFiles(fs, *typ)
+	ros, files, err := typeAndFiles(fs, types)
 	if err != nil {
 		return err
 	}
-	recs, results := feed.LoadReplay(files, feed.ReplayFilter{Tail: *tail, Flight: *flight}, printReject(e.stderr))
+	recs, results := feed.LoadReplay(files, feed.ReplayFilter{Tail: *tail, Flight: *flight}, feed.RosterCheck(ros), printReject(e.stderr))
 	var st feed.Stats
 	for _, res := range results {
 		warnUnknown(e.stderr, res)
@@ -50,11 +50,11 @@ stderr.`,
 		return nil
 	}
 	if isTerminal(e.stdout) {
-		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithReplay(t, model.DefaultTrendConfig(), recs, *speed)))
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithReplay(ros, model.DefaultTrendConfig(), recs, *speed)))
 	}
 	p := feed.NewPlayer(recs, *speed)
 	p.MaxWait = *maxWait
-	sw := newSnapshotWriter(e.stdout, t)
+	sw := newSnapshotWriter(e.stdout, ros)
 	if err := p.Run(e.ctx, feed.RealClock{}, sw.write); err != nil && e.ctx.Err() == nil {
 		return err
 	}
@@ -63,7 +63,7 @@ stderr.`,
 }
 
 func runFollow(e *env, args []string) error {
-	fs := newFlagSet("follow", "dragdeck follow [--type FILE] [--tail ID] FILE",
+	fs := newFlagSet("follow", "dragdeck follow [--type FILE | --fleet FILE] [--tail ID] FILE",
 		`Watches a snapshot file that another system is still writing: reads the rows
 already there, then each new row as soon as its line is complete. A truncated
 file starts over, a replaced (rotated) file is reopened, a deleted file is
@@ -71,7 +71,7 @@ waited for; each such event is noted on stderr. When stdout is not a terminal,
 each snapshot is one JSON object per line, as for replay. --tail keeps one
 tail's rows. Stop with Ctrl-C.`,
 		"dragdeck follow --tail DD101 /data/live/snapshots.csv")
-	typ := fs.typeFlag()
+	types := fs.typeFlags()
 	tail := fs.str("tail", "ID", "", "only this tail")
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
@@ -79,15 +79,16 @@ tail's rows. Stop with Ctrl-C.`,
 	if fs.NArg() != 1 {
 		return usageErrorf("give exactly one FILE to follow (see 'dragdeck follow --help')")
 	}
-	t, err := loadType(*typ)
+	ros, err := types.roster()
 	if err != nil {
 		return err
 	}
 	if isTerminal(e.stdout) {
-		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithLive(t, model.DefaultTrendConfig(), fs.Arg(0), *tail)))
+		return runDashboard(e, tui.New(e.ctx, nil, nil, tui.WithLive(ros, model.DefaultTrendConfig(), fs.Arg(0), *tail)))
 	}
-	sw := newSnapshotWriter(e.stdout, t)
-	fl := &feed.Follower{Path: fs.Arg(0), Notice: func(s string) { fmt.Fprintf(e.stderr, "dragdeck follow: %s\n", s) }}
+	sw := newSnapshotWriter(e.stdout, ros)
+	fl := &feed.Follower{Path: fs.Arg(0), CheckTail: feed.RosterCheck(ros),
+		Notice: func(s string) { fmt.Fprintf(e.stderr, "dragdeck follow: %s\n", s) }}
 	f := feed.ReplayFilter{Tail: *tail}
 	emit := func(r feed.Record) error {
 		if !f.Match(r) {

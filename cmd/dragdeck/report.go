@@ -33,6 +33,29 @@ type fleetJSON struct {
 	Last            string `json:"last,omitempty"`
 	// Engine is the engine series of the tails with fan speed; null without.
 	Engine *fleetSeriesJSON `json:"engine"`
+	// Types groups the tails by the type in force at their last snapshot:
+	// the medians their level flags compare with.
+	Types map[string]typeJSON `json:"types"`
+}
+
+type typeJSON struct {
+	Tails                    int      `json:"tails"`
+	DeviationPctMedian       *float64 `json:"deviation_pct_median"`
+	EngineDeviationPctMedian *float64 `json:"engine_deviation_pct_median"`
+}
+
+// newTypesJSON gives each type's tail count and its medians of the two
+// series (from the pipeline's fleets).
+func newTypesJSON(r *pipeline.Result) map[string]typeJSON {
+	out := map[string]typeJSON{}
+	for name, g := range r.Fleet.Types {
+		t := typeJSON{Tails: g.Tails, DeviationPctMedian: num(g.MedianRecentPct)}
+		if eg, ok := r.Engine.Types[name]; ok {
+			t.EngineDeviationPctMedian = num(eg.MedianRecentPct)
+		}
+		out[name] = t
+	}
+	return out
 }
 
 // fleetSeriesJSON is one series over the fleet: its tails, flags, median
@@ -52,6 +75,7 @@ func newFleetSeriesJSON(f model.Fleet) fleetSeriesJSON {
 
 type tailJSON struct {
 	Tail string `json:"tail"`
+	Type string `json:"type"` // the type in force at its last snapshot
 	// ThrustSource is "fan speed" when the tail has an engine series, else
 	// "fuel flow" (the drag then includes engine effects).
 	ThrustSource string         `json:"thrust_source"`
@@ -130,7 +154,7 @@ func eventText(e *model.Event) string {
 
 func newTailJSON(a model.TailAssessment, engine *model.TailAssessment, price float64) tailJSON {
 	j := tailJSON{
-		Tail: a.Tail, ThrustSource: sourceFuelFlow, Points: a.Points, Flights: len(a.Flights),
+		Tail: a.Tail, Type: a.Type, ThrustSource: sourceFuelFlow, Points: a.Points, Flights: len(a.Flights),
 		First: timeOrEmpty(a.First), Last: timeOrEmpty(a.Last),
 		seriesJSON: newSeriesJSON(a), Excluded: a.Excluded, NoLevel: a.Why(),
 	}
@@ -181,7 +205,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 }
 
 func runReport(e *env, args []string) error {
-	fs := newFlagSet("report", "dragdeck report [--type FILE] [--format table|csv|json] [--events FILE] [flags] PATH...",
+	fs := newFlagSet("report", "dragdeck report [--type FILE | --fleet FILE] [--format table|csv|json] [--events FILE] [flags] PATH...",
 		`Per-tail drag trend and flags for a fleet (the method is in the README). Every
 accepted snapshot is analysed against the baseline polar; points beyond the
 limits below are left out and counted. Per tail: the recent level (median
@@ -189,14 +213,15 @@ per-flight deviation over the last --recent-days), the drift (Theil–Sen slope
 of the daily medians over the trailing --drift-days after the last step, with
 its 95 % interval), the steps (significant jumps found by piecewise-linear
 segmentation; events start a new segment), the flags and the cost:
-  level   recent level ≥ fleet median + --level-pp
+  level   recent level ≥ fleet median + --level-pp (with --fleet: the median
+          of the tail's own type)
   growth  drift × --drift-days ≥ --growth-pp and its interval excludes zero
   step    an increase ≥ --step-pp that has not been undone
 Decreases are reported as improvements, not flagged. Excess fuel per year =
 recent level × the tail's median expected cruise fuel flow × --cruise-hours;
 CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		"dragdeck report --events fleet/events.csv --fuel-price-per-kg 0.85 fleet/snapshots/")
-	typ := fs.typeFlag()
+	types := fs.typeFlags()
 	format := fs.str("format", "F", "table", "table, csv or json")
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note): steps are matched to events, trends restart at them")
 	rejects := fs.str("rejects", "FILE", "", "write every rejected row to FILE")
@@ -215,7 +240,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	default:
 		return usageErrorf("--format: %q is not table, csv or json", *format)
 	}
-	t, files, err := typeAndFiles(fs, *typ)
+	ros, files, err := typeAndFiles(fs, types)
 	if err != nil {
 		return err
 	}
@@ -235,7 +260,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		defer f.Close()
 		rejOut = f
 	}
-	r := pipeline.Run(pipeline.Input{Paths: files, Type: t, Events: evs, Config: c, Reject: func(r *feed.RowError) {
+	r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Events: evs, Config: c, Reject: func(r *feed.RowError) {
 		if rejOut != nil {
 			fmt.Fprintln(rejOut, r)
 		}
@@ -302,10 +327,10 @@ func notAnInput(out string, inputs []string) error {
 }
 
 func writeReportJSON(w io.Writer, r *pipeline.Result) error {
-	f, c, t := r.Fleet, r.Config, r.Type
+	f, c := r.Fleet, r.Config
 	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
-		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last)},
-		Settings: map[string]any{"type": t.Name, "recent_days": c.RecentDays, "drift_days": c.DriftDays,
+		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last), Types: newTypesJSON(r)},
+		Settings: map[string]any{"type": r.Roster.Label(), "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
 	if len(r.Engine.Tails) > 0 {
 		e := newFleetSeriesJSON(r.Engine)
@@ -331,7 +356,7 @@ func fmtF(v float64, prec int) string {
 func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 	f := r.Fleet
 	cw := csv.NewWriter(w)
-	head := []string{"tail", "thrust_source", "points", "flights", "first", "last", "deviation_pct", "drift_pct_per_100d", "drift_ci95_lo", "drift_ci95_hi",
+	head := []string{"tail", "type", "thrust_source", "points", "flights", "first", "last", "deviation_pct", "drift_pct_per_100d", "drift_ci95_lo", "drift_ci95_hi",
 		"last_step_date", "last_step_size_pct", "flags", "excess_fuel_kg_per_year", "co2_t_per_year",
 		"engine_deviation_pct", "engine_drift_pct_per_100d", "engine_last_step_date", "engine_last_step_size_pct", "engine_flags",
 		"engine_excess_fuel_kg_per_year"}
@@ -352,7 +377,7 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 				eng[2], eng[3] = e.Steps[k-1].Time.UTC().Format(time.DateOnly), fmtF(e.Steps[k-1].SizePct, 2)
 			}
 		}
-		row := []string{a.Tail, source, strconv.Itoa(a.Points), strconv.Itoa(len(a.Flights)), timeOrEmpty(a.First), timeOrEmpty(a.Last),
+		row := []string{a.Tail, a.Type, source, strconv.Itoa(a.Points), strconv.Itoa(len(a.Flights)), timeOrEmpty(a.First), timeOrEmpty(a.Last),
 			fmtF(a.RecentPct, 2), fmtF(a.Drift.Slope, 2), fmtF(a.Drift.Lo, 2), fmtF(a.Drift.Hi, 2), stepDate, stepSize,
 			strings.Join(a.Flags, " "), fmtF(a.ExcessFuel, 0), fmtF(a.CO2/1000, 1)}
 		row = append(row, eng...)
@@ -366,13 +391,14 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 }
 
 func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
-	f, t, c := r.Fleet, r.Type, r.Config
+	f, c := r.Fleet, r.Config
 	price := c.FuelPrice
+	mixed := r.Roster.Single() == nil
 	span := "no data"
 	if !r.First.IsZero() {
 		span = r.First.Format(time.DateOnly) + " … " + r.Last.Format(time.DateOnly) + " UTC"
 	}
-	fmt.Fprintf(w, "Fleet drag report: %s\n", t.Name)
+	fmt.Fprintf(w, "Fleet drag report: %s\n", r.Roster.Label())
 	fmt.Fprintf(w, "%d tails, %d snapshots read from %d file(s), %d rejected\nperiod %s\n", len(f.Tails), r.Stats.Read, files, r.Stats.Rejected, span)
 	if len(f.Tails) == 0 {
 		fmt.Fprintf(w, "\nNo usable snapshots: nothing to report.\n\n%s\n", caution)
@@ -384,11 +410,29 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		fmt.Fprintf(w, " (airframe).\nEngine series, %d tail(s) with fan speed: median %s %%, %d flagged, %s t fuel,\n%s t CO2",
 			len(e.Tails), signed(e.MedianRecentPct, 2), e.Flagged, signed(e.ExcessFuel/1000, 0), signed(e.CO2/1000, 0))
 	}
-	fmt.Fprint(w, ".\n\n")
+	fmt.Fprint(w, ".\n")
+	if mixed {
+		for _, name := range r.Roster.TypeNames() {
+			g, ok := f.Types[name]
+			if !ok {
+				continue
+			}
+			fmt.Fprintf(w, "  %s: %d tail(s), median %s %%", name, g.Tails, signed(g.MedianRecentPct, 2))
+			if eg, ok := r.Engine.Types[name]; ok {
+				fmt.Fprintf(w, ", engine median %s %%", signed(eg.MedianRecentPct, 2))
+			}
+			fmt.Fprintln(w)
+		}
+	}
+	fmt.Fprintln(w)
 	hasEngine := len(r.Engine.Tails) > 0
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	// Two header lines: the column, then its unit.
-	fmt.Fprint(tw, "tail\tlevel\tdrift\tlast step\tfuel\tCO2\t")
+	fmt.Fprint(tw, "tail\t")
+	if mixed {
+		fmt.Fprint(tw, "type\t")
+	}
+	fmt.Fprint(tw, "level\tdrift\tlast step\tfuel\tCO2\t")
 	if hasEngine {
 		fmt.Fprint(tw, "engine\teng fuel\t")
 	}
@@ -396,7 +440,11 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		fmt.Fprint(tw, "money\t")
 	}
 	fmt.Fprintln(tw, "flags")
-	fmt.Fprint(tw, "\t%\tpp/100d\tdate pp\tt/yr\tt/yr\t")
+	fmt.Fprint(tw, "\t")
+	if mixed {
+		fmt.Fprint(tw, "\t")
+	}
+	fmt.Fprint(tw, "%\tpp/100d\tdate pp\tt/yr\tt/yr\t")
 	if hasEngine {
 		fmt.Fprint(tw, "%\tt/yr\t")
 	}
@@ -411,7 +459,11 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 			step = a.Steps[k-1].Time.UTC().Format(time.DateOnly) + " " + signed(a.Steps[k-1].SizePct, 1)
 		}
 		flags := a.Flags
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t", a.Tail, signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step,
+		fmt.Fprintf(tw, "%s\t", a.Tail)
+		if mixed {
+			fmt.Fprintf(tw, "%s\t", a.Type)
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t", signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step,
 			signed(a.ExcessFuel/1000, 0), signed(a.CO2/1000, 0))
 		if hasEngine {
 			if e, ok := r.EngineTail(a.Tail); ok {
@@ -441,9 +493,15 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 			fmt.Fprintf(w, "  %s\n", s)
 		}
 	}
+	if mixed {
+		fmt.Fprintf(w, "\ntype: in force at the tail's last snapshot; the level flag compares a tail with\nthe median of its own type.")
+	}
 	fmt.Fprintf(w, "\nlevel: median per-flight drag deviation of the last %g days. drift: pp per\n"+
 		"100 days over the trailing %g days (Theil–Sen). last step: date and size in pp.\n"+
 		"fuel, CO2: excess per year at %g cruise hours", c.RecentDays, c.DriftDays, c.CruiseHours)
+	if mixed {
+		fmt.Fprint(w, " (or the fleet file's, per tail)")
+	}
 	if hasEngine {
 		fmt.Fprintf(w, ".\nWith fan speed (N1) the level, drift and steps are the airframe's; engine: the\n"+
 			"engine series' level (fuel burnt against the model's for the thrust measured),\n"+

@@ -133,7 +133,7 @@ func TestReportFormatsAndExits(t *testing.T) {
 		t.Errorf("rejects file:\n%s", rj)
 	}
 	code, out, _ = runArgs("report", "--format", "csv", snaps)
-	if code != 0 || !strings.HasPrefix(out, "tail,thrust_source,points,flights,first,last,deviation_pct,drift_pct_per_100d") || strings.Count(out, "\n") != 9 {
+	if code != 0 || !strings.HasPrefix(out, "tail,type,thrust_source,points,flights,first,last,deviation_pct,drift_pct_per_100d") || strings.Count(out, "\n") != 9 {
 		t.Errorf("csv: exit %d\n%s", code, out)
 	}
 	if code, _, _ := runArgs("report", "--fail-on-flag", snaps); code != 1 {
@@ -316,7 +316,7 @@ func TestReportEngineSeries(t *testing.T) {
 		t.Errorf("table without both series:\n%s", table)
 	}
 	_, csvOut, _ := runArgs("report", "--type", "../../testdata/types/twin_thrust.toml", "--format", "csv", p)
-	if !strings.Contains(csvOut, "engine_deviation_pct") || !strings.Contains(csvOut, "FAN,fan speed,") || !strings.Contains(csvOut, "FUEL,fuel flow,") {
+	if !strings.Contains(csvOut, "engine_deviation_pct") || !strings.Contains(csvOut, "FAN,DD-200 demo twin with a thrust table (invented),fan speed,") || !strings.Contains(csvOut, "FUEL,DD-200 demo twin with a thrust table (invented),fuel flow,") {
 		t.Errorf("csv without both series:\n%s", csvOut)
 	}
 	// Every FAN snapshot is the same, so its engine level is the engine

@@ -56,7 +56,7 @@ has the thrust (when the type gives it) and is within the type's ceiling.
 --excess-counts adds a tail's excess drag to CD0, so the table shows what the
 drag costs in speed and level against the baseline.`,
 		"dragdeck speed --weight-kg 65000 --alt-ft 35000 --cost-index 25 --excess-counts 30")
-	typ := fs.typeFlag()
+	types := fs.oneTypeFlags()
 	w := fs.float("weight-kg", "W", 0, true, "gross weight, kg")
 	alt := fs.float("alt-ft", "H", 0, true, "pressure altitude, ft")
 	dev := fs.float("isa-dev-c", "D", 0, false, "temperature deviation from ISA, °C")
@@ -66,7 +66,7 @@ drag costs in speed and level against the baseline.`,
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
 		return helpOK(err)
 	}
-	t, err := loadType(*typ)
+	t, err := types.one()
 	if err != nil {
 		return err
 	}

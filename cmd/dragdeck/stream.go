@@ -27,22 +27,25 @@ type snapshotLine struct {
 // line each when the output is a terminal.
 type snapshotWriter struct {
 	w    io.Writer
-	t    *model.Type
+	r    *model.Roster
 	json bool
 	enc  *json.Encoder
 }
 
-func newSnapshotWriter(w io.Writer, t *model.Type) *snapshotWriter {
-	sw := &snapshotWriter{w: w, t: t, json: !isTerminal(w)}
+func newSnapshotWriter(w io.Writer, r *model.Roster) *snapshotWriter {
+	sw := &snapshotWriter{w: w, r: r, json: !isTerminal(w)}
 	sw.enc = json.NewEncoder(w)
 	if !sw.json {
-		fmt.Fprintf(w, "%s\n%s\n", t.Name, caution)
+		fmt.Fprintf(w, "%s\n%s\n", r.Label(), caution)
 	}
 	return sw
 }
 
+// write analyses r with the type in force for its tail (readers reject the
+// tails that have none) and writes it.
 func (sw *snapshotWriter) write(r feed.Record) error {
-	p := model.Analyze(sw.t, r.Snap)
+	p, snap, _, _ := sw.r.Analyze(r.Tail, r.Time, r.Snap)
+	r.Snap = snap
 	if sw.json {
 		return sw.enc.Encode(snapshotLine{Time: r.Time.Format(time.RFC3339), Tail: r.Tail, Flight: r.Flight, pointJSON: newPointJSON(p)})
 	}

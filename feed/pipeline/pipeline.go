@@ -25,7 +25,7 @@ type Input struct {
 	// Roster gives the type in force for each tail at each time (a fleet
 	// file, §3.4); nil: every snapshot is analysed with Type.
 	Roster *model.Roster
-	Type   *model.Type // the baseline of every snapshot when Roster is nil
+	Type   *model.Type              // the baseline of every snapshot when Roster is nil
 	Events map[string][]model.Event // by tail (may be nil)
 	Config model.TrendConfig
 
@@ -48,8 +48,8 @@ type Result struct {
 	Engine       model.Fleet
 	EnginePoints map[string][]model.TrendPoint
 	// Records are the accepted records by tail in time order, when
-	// Input.KeepRecords is set; their fuel flow carries the fleet file's
-	// correction, as analysed.
+	// Input.KeepRecords is set, as read (Roster.Analyze applies the fleet
+	// file's fuel-flow correction when they are analysed again).
 	Records     map[string][]feed.Record
 	Files       []feed.FileResult // one per path, in order
 	Stats       feed.Stats        // rows of all files
@@ -167,7 +167,7 @@ func Run(in Input) *Result {
 			defer wg.Done()
 			for i := range jobs {
 				batch := getBatch()
-				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: r.checkTail}
+				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: feed.RosterCheck(r.Roster)}
 				r.Files[i] = feed.ReadFileWith(in.Paths[i], opt, func(rec feed.Record) {
 					batch = append(batch, rec)
 					if len(batch) == batchSize {
@@ -210,7 +210,7 @@ func FromRecords(recs []feed.Record, st feed.Stats, in Input) *Result {
 	r := newResult(in, 0)
 	r.Stats = st
 	for _, rec := range recs {
-		if why := r.checkTail(rec.Tail, rec.Time); why != "" {
+		if _, _, why := r.Roster.At(rec.Tail, rec.Time); why != "" {
 			r.Stats.Accepted--
 			r.Stats.Rejected++
 			if in.Reject != nil {
@@ -236,13 +236,6 @@ func newResult(in Input, files int) *Result {
 		r.Records = map[string][]feed.Record{}
 	}
 	return r
-}
-
-// checkTail is the reader's tail check: the roster's reason when no entry
-// is in force for the tail at t.
-func (r *Result) checkTail(tail string, t time.Time) string {
-	_, _, why := r.Roster.At(tail, t)
-	return why
 }
 
 // TypeAt returns the type in force for the tail at t (nil when none is).
@@ -272,15 +265,11 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if in.Filter != nil && !in.Filter(rec) {
 		return
 	}
-	e, typ, _ := r.Roster.At(rec.Tail, rec.Time)
+	p, snap, typ, _ := r.Roster.Analyze(rec.Tail, rec.Time, rec.Snap)
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	if e.FuelFlowCorrectionPct != 0 {
-		rec.Snap.FuelFlow *= 1 + e.FuelFlowCorrectionPct/100
-	}
-	p := model.Analyze(typ, rec.Snap)
-	tp := model.NewTrendPoint(rec.Time, rec.Flight, rec.Snap, p)
+	tp := model.NewTrendPoint(rec.Time, rec.Flight, snap, p)
 	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
 	if p.ThrustFromN1 {
 		tp.DevPct = p.EngineDevPct
