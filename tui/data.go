@@ -36,8 +36,8 @@ func DemoData() (*Data, error) {
 type Condition struct {
 	Tail      string
 	Type      *model.Type // the tail's type at this condition (nil: the run's)
-	Weight    float64 // kg
-	Altitude  float64 // m, pressure altitude
+	Weight    float64     // kg
+	Altitude  float64     // m, pressure altitude
 	Mach      float64
 	ISADev    float64 // K
 	CostIndex float64 // kg/min
