@@ -40,6 +40,9 @@ var fleetOrders = []struct {
 	{"deviation", func(a, b model.TailAssessment) int { return descending(a.RecentPct, b.RecentPct) }},
 	{"drift", func(a, b model.TailAssessment) int { return descending(a.Drift.Slope, b.Drift.Slope) }},
 	{"fuel", func(a, b model.TailAssessment) int { return descending(a.ExcessFuel, b.ExcessFuel) }},
+	// grouped by type, most severe first within each (severity is the
+	// pipeline's order, and the sort is stable)
+	{"type", func(a, b model.TailAssessment) int { return cmp.Compare(a.Type, b.Type) }},
 }
 
 // descending orders larger values first and NaN last.
@@ -137,7 +140,8 @@ func (s *fleetScreen) applyFilter() {
 	if s.data != nil {
 		q := strings.ToLower(strings.TrimSpace(s.filter.Value()))
 		for _, a := range s.data.Fleet.Tails {
-			if q == "" || strings.Contains(strings.ToLower(a.Tail), q) || strings.Contains(strings.Join(a.Flags, " "), q) {
+			if q == "" || strings.Contains(strings.ToLower(a.Tail), q) || strings.Contains(strings.Join(a.Flags, " "), q) ||
+				strings.Contains(strings.ToLower(a.Type), q) {
 				s.rows = append(s.rows, a)
 			}
 		}
@@ -238,7 +242,17 @@ const (
 	colFuel  = 7
 	colFlags = 14
 	colEng   = 7 // the engine series' level, when any tail has one
+	colType  = 9 // the tail's type, with a fleet file of several types
 )
+
+// typeCol is the width of the type column: colType with a fleet file,
+// else 0 (one type, named in the header).
+func (s *fleetScreen) typeCol() int {
+	if s.data != nil && s.data.Roster.Single() == nil {
+		return colType
+	}
+	return 0
+}
 
 // engineCol is the width of the engine column: colEng when some tail has
 // an engine series (thrust from fan speed), else 0.
@@ -277,11 +291,12 @@ func (s *fleetScreen) render() {
 	}
 	b.WriteString(truncate(line2, s.w) + "\n")
 	eng := s.engineCol()
-	spark := max(0, s.w-colMark-colTail-colDev-colDrift-colStep-colFuel-colFlags-eng-4)
+	typ := s.typeCol()
+	spark := max(0, s.w-colMark-colTail-typ-colDev-colDrift-colStep-colFuel-colFlags-eng-4)
 	// Two header lines: what each column is, then its unit and period.
-	h1 := pad("", colMark) + pad("tail", colTail) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
+	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
 		padL("fuel", colFuel) + padL("engine", eng) + " " + pad("flags", colFlags) + " " + pad("per flight", spark)
-	h2 := pad("", colMark) + pad("", colTail) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
+	h2 := pad("", colMark) + pad("", colTail) + pad("", typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
 		padL("t/yr", colFuel) + padL("%", eng) + " " + pad("", colFlags) + " " + pad("dev %, all", spark)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
@@ -338,7 +353,7 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) stri
 		flags = "-"
 	}
 	spk := s.sparkFor(a, spark)
-	num := pad(clean(a.Tail), colTail) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
+	num := pad(clean(a.Tail), colTail) + pad(truncate(clean(a.Type), max(0, s.typeCol()-1)), s.typeCol()) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
 	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
 	if selected {
 		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+pad(flags, colFlags)+" "+spk, s.w-colMark))

@@ -237,3 +237,45 @@ func engineResult(t *testing.T) (*pipeline.Result, string) {
 	}
 	return r, fan
 }
+
+// TestFleetTypeColumn: with a fleet file of several types the Fleet screen
+// shows each tail's type, filters on it and groups by it.
+func TestFleetTypeColumn(t *testing.T) {
+	roster, err := feed.LoadFleet("../testdata/fleets/mixed/fleet.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := demo.NewFleet(demo.Config{Tails: 3, Days: 60, Seed: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The demo's tails renamed onto the fleet file's tails.
+	names := map[string]string{}
+	want := []string{"DT101", "DT102", "WB201"}
+	recs := append([]feed.Record(nil), d.Records...)
+	for i := range recs {
+		if _, ok := names[recs[i].Tail]; !ok {
+			names[recs[i].Tail] = want[len(names)]
+		}
+		recs[i].Tail = names[recs[i].Tail]
+	}
+	r := pipeline.FromRecords(recs, d.Stats, pipeline.Input{Roster: roster, Config: model.DefaultTrendConfig(), KeepRecords: true})
+	m := sized(NewData("test", r), 100, 30)
+	v := checkFrame(t, m, 100, 30)
+	if h, _ := lineWith(v, "last step"); !strings.Contains(h, "type") {
+		t.Errorf("header without the type column: %q", h)
+	}
+	for tail, typ := range map[string]string{"DT101": "DT", "WB201": "WB"} {
+		if l, _ := lineWith(v, tail); !strings.Contains(l, tail+"   "+typ+" ") {
+			t.Errorf("%s: row %q without its type %s", tail, l, typ)
+		}
+	}
+	press(m, "/", "w", "b", "enter")
+	v = checkFrame(t, m, 100, 30)
+	if _, ok := lineWith(v, "WB201"); !ok {
+		t.Errorf("filter by type lost WB201:\n%s", v)
+	}
+	if _, ok := lineWith(v, "DT101"); ok {
+		t.Errorf("filter by type kept DT101:\n%s", v)
+	}
+}
