@@ -9,7 +9,7 @@ import (
 )
 
 func runDemo(e *env, args []string) error {
-	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE]",
+	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE] [--clean]",
 		`Writes the invented demo fleet into DIR: snapshots/fleet.csv (cruise
 snapshots of every tail, with a few broken rows on purpose), type.toml (the
 demo type), events.csv (repairs and washes), traces/ (per-minute records of a
@@ -18,13 +18,17 @@ drift, steps, offsets, expected flags, and the broken rows). The data ends on
 a fixed date in the past (2026-06-30) and runs back --days from it. The same
 seed gives the same bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
 1.1 million rows. --type flies another aircraft type: weights scale with its
-wing area and buffet limit, speeds with its maximum-range Mach.`,
+wing area and buffet limit, speeds with its maximum-range Mach. The recorded
+snapshots carry the errors of real recorders (weight per flight 0.3 %, Mach
+0.001, SAT 0.3 K, fuel flow 0.4 % per flight, the seasonal temperature);
+truth.json lists them, and --clean leaves them all out.`,
 		"dragdeck demo --out /tmp/fleet --tails 24 --days 730 --seed 1")
 	typ := fs.typeFlag()
 	out := fs.str("out", "DIR", "", "folder to write into, created if needed (required)")
 	tails := fs.Int("tails", 24, "number of aircraft")
 	days := fs.Int("days", 730, "days of data")
 	seed := fs.Uint64("seed", 1, "random seed")
+	clean := fs.Bool("clean", false, "leave out the sensor effects (weight, Mach, SAT and fuel-flow errors, seasons)")
 	fs.argNames["tails"], fs.argNames["days"], fs.argNames["seed"] = "N", "D", "S"
 	fs.required = append(fs.required, "out")
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
@@ -44,7 +48,7 @@ wing area and buffet limit, speeds with its maximum-range Mach.`,
 	if err != nil {
 		return err
 	}
-	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t})
+	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t, Clean: *clean})
 	if err != nil {
 		return usageErrorf("--out: %v", err)
 	}

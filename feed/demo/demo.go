@@ -37,6 +37,10 @@ type Config struct {
 	// scale with its wing area and buffet limit, speeds with its
 	// maximum-range Mach.
 	Type *model.Type
+	// Effects are the sensor effects on the recorded data (nil: the
+	// defaults, DefaultEffects); Clean leaves them all out.
+	Effects *Effects
+	Clean   bool
 }
 
 func (c Config) withDefaults() Config {
@@ -54,6 +58,13 @@ func (c Config) withDefaults() Config {
 	}
 	if c.Type == nil {
 		c.Type = feed.DemoType()
+	}
+	if c.Effects == nil {
+		e := DefaultEffects()
+		c.Effects = &e
+	}
+	if c.Clean {
+		c.Effects = &Effects{}
 	}
 	return c
 }
@@ -94,12 +105,14 @@ type Truth struct {
 	// ReferenceCD is the baseline CD at the reference cruise; a deviation
 	// d % of the truth is an excess ΔCD = d/100 × ReferenceCD at every
 	// condition (lift-independent).
-	ReferenceCD float64      `json:"reference_cd_baseline"`
-	Tails       []TailTruth  `json:"tails"`
-	BrokenRows  []BrokenRow  `json:"broken_rows"`
-	Traces      []TraceTruth `json:"traces"`
-	Events      []Event      `json:"events"`
-	Note        string       `json:"note"`
+	ReferenceCD float64 `json:"reference_cd_baseline"`
+	// Effects are the sensor effects put on the recorded snapshots.
+	Effects    Effects      `json:"sensor_effects"`
+	Tails      []TailTruth  `json:"tails"`
+	BrokenRows []BrokenRow  `json:"broken_rows"`
+	Traces     []TraceTruth `json:"traces"`
+	Events     []Event      `json:"events"`
+	Note       string       `json:"note"`
 }
 
 type truthLimits struct {
@@ -356,7 +369,11 @@ func (g *demoGen) cruiseLevel(w float64) float64 {
 // isaDev is the seasonal ISA deviation (K) on day t, with weather noise.
 func (g *demoGen) isaDev(t time.Time) float64 {
 	season := 6 * math.Sin(2*math.Pi*(float64(t.YearDay())-110)/365)
-	return max(-25, min(25, season+g.rng.NormFloat64()*4))
+	weather := g.rng.NormFloat64() * 4
+	if !g.cfg.Effects.Seasonal {
+		return 0
+	}
+	return max(-25, min(25, season+weather))
 }
 
 // days calls fn with each day's rows in time order.
@@ -378,8 +395,13 @@ func (g *demoGen) days(fn func([]demoRow)) {
 				w := g.wMid * g.uniform(0.924, 1.17)
 				alt := g.cruiseLevel(w)
 				m := math.Round(g.uniform(g.machLo, g.machHi)*1000) / 1000
-				bias := g.rng.NormFloat64() * 0.004 // per-flight instrument bias
+				fx := g.cfg.Effects
+				bias := g.rng.NormFloat64() * fx.FuelFlowScatterPct / 100 // per-flight fuel-flow error
 				fdev := dev + g.rng.NormFloat64()*1.5
+				if !fx.Seasonal {
+					fdev = 0
+				}
+				wErr := 1 + g.rng.NormFloat64()*fx.WeightErrorPct/100 // per-flight weight error
 				t := dep.Add(25 * time.Minute)
 				snaps := 1 + g.rng.IntN(3)
 				for s := 0; s < snaps; s++ {
@@ -394,10 +416,14 @@ func (g *demoGen) days(fn func([]demoRow)) {
 							acc = g.uniform(1, 3) * float64(1-2*g.rng.IntN(2))
 						}
 					}
-					r := g.snapshot(tt, t, flight, w, alt, m, fdev, bank, vs, acc, bias+g.rng.NormFloat64()*0.006)
+					r := g.snapshot(tt, t, flight, w, alt, m, fdev, bank, vs, acc, bias+g.rng.NormFloat64()*fuelFlowNoise)
+					w -= r.ffKgph * 0.4 // the true weight: about 25 min of burn
+					// What the recorders give: the true values with their errors.
+					r.w *= wErr
+					r.mach += g.rng.NormFloat64() * fx.MachNoise
+					r.satC += g.rng.NormFloat64() * fx.SATNoiseK
 					rows = append(rows, r)
 					t = t.Add(time.Duration(15+g.rng.IntN(15)) * time.Minute)
-					w -= r.ffKgph * 0.4 // about 25 min of burn
 				}
 				dep = dep.Add(time.Duration(200+g.rng.IntN(90)) * time.Minute)
 			}

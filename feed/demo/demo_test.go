@@ -127,8 +127,10 @@ func TestDemoRecoversTruth(t *testing.T) {
 			continue
 		}
 		// The recent level is the truth at 15 days before the end; a drifting
-		// tail's median over 30 days sits there too.
-		if diff := got - tt.RecentLevelPct; diff > 0.3 || diff < -0.3 {
+		// tail's median over 30 days sits there too. With the sensor effects
+		// on (the default) the medians are within 0.5 pp, the figure the
+		// report must meet.
+		if diff := got - tt.RecentLevelPct; diff > 0.5 || diff < -0.5 {
 			t.Errorf("%s (%s): recent median %.2f %%, truth %.2f %%", tt.Tail, tt.Role, got, tt.RecentLevelPct)
 		}
 	}

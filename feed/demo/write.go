@@ -157,6 +157,7 @@ func (g *demoGen) newTruth() Truth {
 		Thresholds:     truthLimits{LevelPP: truthLevelPP, GrowthPPin180: truthGrowthPP, StepPP: truthStepPP},
 		FleetMedianPct: g.fleetMedian(),
 		ReferenceCD:    g.refCD,
+		Effects:        *g.cfg.Effects,
 		Tails:          g.tails,
 		BrokenRows:     []BrokenRow{},
 		Traces:         []TraceTruth{},
