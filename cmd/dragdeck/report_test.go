@@ -34,9 +34,18 @@ type reportOut struct {
 			Date    string  `json:"date"`
 			SizePct float64 `json:"size_pct"`
 		} `json:"steps"`
-		Flags []string `json:"flags"`
-		Fuel  float64  `json:"excess_fuel_kg_per_year"`
-		CO2   float64  `json:"co2_t_per_year"`
+		Flags  []string `json:"flags"`
+		Fuel   float64  `json:"excess_fuel_kg_per_year"`
+		CO2    float64  `json:"co2_t_per_year"`
+		Source string   `json:"thrust_source"`
+		Engine *struct {
+			Dev   *float64 `json:"deviation_pct"`
+			Flags []string `json:"flags"`
+			Steps []struct {
+				Date    string  `json:"date"`
+				SizePct float64 `json:"size_pct"`
+			} `json:"steps"`
+		} `json:"engine"`
 	} `json:"tails"`
 }
 
@@ -52,6 +61,10 @@ func TestReportFindsTheTruth(t *testing.T) {
 		{"demo type, 24 tails, 2 years", []string{"--tails", "24", "--days", "730", "--seed", "1"}},
 		{"demo type, 40 tails, 500 days", []string{"--tails", "40", "--days", "500", "--seed", "21"}},
 		{"widebody type, 30 tails", []string{"--tails", "30", "--days", "650", "--seed", "5", "--type", "../../testdata/types/widebody.toml"}},
+		// fan speed on most tails: engine wear, a meter bias and a shop
+		// visit planted on steady airframes
+		{"thrust-table twin, 24 tails, 2 years", []string{"--tails", "24", "--days", "730", "--seed", "3", "--type", "../../testdata/types/twin_thrust.toml"}},
+		{"thrust-table twin, 36 tails, 600 days", []string{"--tails", "36", "--days", "600", "--seed", "17", "--type", "../../testdata/types/twin_thrust.toml"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -98,6 +111,7 @@ func TestReportFindsTheTruth(t *testing.T) {
 				if r.Dev == nil || math.Abs(*r.Dev-tt.RecentLevelPct) > 0.5 {
 					t.Errorf("%s: recent level %s, truth %.2f", r.Tail, fmtPtr(r.Dev), tt.RecentLevelPct)
 				}
+				checkEngineTruth(t, r.Tail, tt, r.Source, r.Engine)
 				if len(r.Steps) != len(tt.Steps) {
 					t.Errorf("%s (%s): steps %+v, truth %+v", r.Tail, tt.Role, r.Steps, tt.Steps)
 					continue
@@ -111,6 +125,49 @@ func TestReportFindsTheTruth(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// checkEngineTruth compares a tail's engine series with what the demo
+// planted: fan speed or the fuel-flow fallback, the engine flags exactly,
+// the recent level within 0.5 pp, a shop visit as an engine step of the
+// right date (7 days) and size (0.5 pp).
+func checkEngineTruth(t *testing.T, tail string, tt demo.TailTruth, source string, eng *struct {
+	Dev   *float64 `json:"deviation_pct"`
+	Flags []string `json:"flags"`
+	Steps []struct {
+		Date    string  `json:"date"`
+		SizePct float64 `json:"size_pct"`
+	} `json:"steps"`
+}) {
+	t.Helper()
+	if !tt.FanSpeed {
+		if source != "fuel flow" || eng != nil {
+			t.Errorf("%s has no fan speed: thrust source %q, engine %v", tail, source, eng)
+		}
+		return
+	}
+	e := tt.Engine
+	if source != "fan speed" || eng == nil {
+		t.Errorf("%s has fan speed: thrust source %q, engine %v", tail, source, eng)
+		return
+	}
+	if strings.Join(eng.Flags, ",") != strings.Join(e.ExpectedFlags, ",") {
+		t.Errorf("%s (engine %s): engine flags %v, truth %v", tail, e.Role, eng.Flags, e.ExpectedFlags)
+	}
+	if eng.Dev == nil || math.Abs(*eng.Dev-e.RecentLevelPct) > 0.5 {
+		t.Errorf("%s (engine %s): engine level %s, truth %.2f", tail, e.Role, fmtPtr(eng.Dev), e.RecentLevelPct)
+	}
+	if len(eng.Steps) != len(e.Steps) {
+		t.Errorf("%s (engine %s): engine steps %+v, truth %+v", tail, e.Role, eng.Steps, e.Steps)
+		return
+	}
+	for i, s := range eng.Steps {
+		got, _ := time.Parse(time.DateOnly, s.Date)
+		want, _ := time.Parse(time.DateOnly, e.Steps[i].Date)
+		if d := got.Sub(want).Hours() / 24; math.Abs(d) > 7 || math.Abs(s.SizePct-e.Steps[i].SizePct) > 0.5 {
+			t.Errorf("%s: engine step %s %+.2f, truth %s %+.2f", tail, s.Date, s.SizePct, e.Steps[i].Date, e.Steps[i].SizePct)
+		}
 	}
 }
 

@@ -7,6 +7,7 @@ import (
 	"math/rand/v2"
 	"sort"
 	"strconv"
+	"strings"
 	"time"
 
 	"dragdeck/feed"
@@ -132,6 +133,11 @@ type TailTruth struct {
 	Manoeuvres      bool        `json:"manoeuvres"`
 	RecentLevelPct  float64     `json:"recent_level_pct"`
 	ExpectedFlags   []string    `json:"expected_flags"`
+	// FanSpeed says that the tail's recorder gives n1_pct (the type has a
+	// thrust table); Engine is then what was planted in its engines and
+	// fuel-flow meter, and the deviation above is the airframe's alone.
+	FanSpeed bool         `json:"fan_speed"`
+	Engine   *EngineTruth `json:"engine"`
 
 	driftStart time.Time
 }
@@ -171,16 +177,7 @@ type Event struct {
 
 // deviation is the true drag deviation (%) of tail tt at time t.
 func (tt *TailTruth) deviation(t time.Time) float64 {
-	d := tt.OffsetPct
-	if tt.DriftPctPer100d != 0 && t.After(tt.driftStart) {
-		d += tt.DriftPctPer100d * t.Sub(tt.driftStart).Hours() / 24 / 100
-	}
-	for _, s := range tt.Steps {
-		if !t.Before(s.at) {
-			d += s.SizePct
-		}
-	}
-	return d
+	return planted(tt.OffsetPct, tt.DriftPctPer100d, tt.driftStart, tt.Steps, t)
 }
 
 // demoGen holds the state of one generation.
@@ -226,6 +223,7 @@ func newDemoGen(cfg Config) *demoGen {
 		g.refCD = g.ty.CD(cl, mRef, 0)
 	}
 	g.assignRoles()
+	g.assignEngines()
 	return g
 }
 
@@ -337,6 +335,7 @@ type demoRow struct {
 	tail, flight                  string
 	w, altFt, mach, satC, ffKgph  float64
 	bankDeg, vsFpm, accelKtPerMin float64
+	n1                            float64 // %, 0: not recorded
 }
 
 // snapshot makes the row of tail tt at time t, with cruise weight w (kg), at
@@ -353,9 +352,15 @@ func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, 
 	cd := g.ty.CD(cl, m, tt.deviation(t)/100*g.refCD) // excess lift-independent, as the analysis takes it
 	tas := air.TAS(m)
 	thrust := cd*q*g.ty.WingArea + w*model.G0*feed.MPerSFromFtPerMin(vsFpm)/tas + w*feed.MPerS2FromKtPerMin(acc)
-	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + noise)
+	// The engines burn the model's fuel for this thrust times their
+	// planted deviation (wear, a meter reading high), with noise.
+	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + tt.Engine.deviation(t)/100) * (1 + noise)
+	n1 := 0.0
+	if tt.FanSpeed {
+		n1 = g.fanSpeed(thrust, m, air.Delta(), air.Theta())
+	}
 	return demoRow{t: t, tail: tt.Tail, flight: flight, w: w, altFt: altFt, mach: m,
-		satC: tISA + dev - model.CelsiusZero, ffKgph: ff * model.Hour, bankDeg: bankDeg, vsFpm: vsFpm, accelKtPerMin: acc}
+		satC: tISA + dev - model.CelsiusZero, ffKgph: ff * model.Hour, bankDeg: bankDeg, vsFpm: vsFpm, accelKtPerMin: acc, n1: n1}
 }
 
 // cruiseLevel returns the flight level (ft, odd thousands) at or below the
@@ -435,6 +440,27 @@ func (g *demoGen) days(fn func([]demoRow)) {
 
 // snapshotHeader is the column layout the demo writes.
 const snapshotHeader = "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,bank_deg,vs_fpm,accel_kt_per_min\n"
+
+// header is the column layout for the type: with n1_pct when it has a
+// thrust table (left empty on the tails without fan speed).
+func (g *demoGen) header() string {
+	if g.ty.Thrust != nil {
+		return strings.TrimSuffix(snapshotHeader, "\n") + ",n1_pct\n"
+	}
+	return snapshotHeader
+}
+
+func (g *demoGen) appendRow(b []byte, r demoRow) []byte {
+	b = appendRow(b, r)
+	if g.ty.Thrust == nil {
+		return b
+	}
+	b = append(b[:len(b)-1], ',')
+	if r.n1 > 0 {
+		b = strconv.AppendFloat(b, r.n1, 'f', 2, 64)
+	}
+	return append(b, '\n')
+}
 
 func appendRow(b []byte, r demoRow) []byte {
 	b = r.t.AppendFormat(b, time.RFC3339)

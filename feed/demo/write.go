@@ -31,7 +31,7 @@ func (g *demoGen) writeSnapshots(w io.Writer, truth *Truth) error {
 	bw := bufio.NewWriterSize(w, 256<<10)
 	fmt.Fprintf(bw, "# dragdeck demo fleet of %s, type %s\n", Airline, g.ty.Name)
 	fmt.Fprintf(bw, "# invented data made by 'dragdeck demo' (seed %d); not flight data of any real aircraft\n", g.cfg.Seed)
-	bw.WriteString(snapshotHeader)
+	bw.WriteString(g.header())
 	line := 3
 	expected := float64(g.cfg.Tails*g.cfg.Days) * 3.8
 	nBroken := max(8, int(expected/20000))
@@ -40,7 +40,7 @@ func (g *demoGen) writeSnapshots(w io.Writer, truth *Truth) error {
 	good, broken := 0, 0
 	g.days(func(rows []demoRow) {
 		for _, r := range rows {
-			buf = appendRow(buf[:0], r)
+			buf = g.appendRow(buf[:0], r)
 			bw.Write(buf)
 			line++
 			good++
@@ -67,6 +67,12 @@ func (g *demoGen) events() []Event {
 			if s.Cause == "repair" {
 				ev = append(ev, Event{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
 					Kind: "repair", Note: "door seal replaced, spoiler rigging checked"})
+			}
+		}
+		if e := tt.Engine; e != nil {
+			for _, s := range e.Steps {
+				ev = append(ev, Event{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
+					Kind: "shop visit", Note: "both engines, performance restoration"})
 			}
 		}
 		if tt.Role == RoleSteady && i%4 == 0 {
@@ -131,13 +137,13 @@ func (g *demoGen) trace(tt *TailTruth, flight string, dep time.Time) []demoRow {
 }
 
 // writeTrace writes one trace file.
-func writeTrace(path string, rows []demoRow) error {
+func (g *demoGen) writeTrace(path string, rows []demoRow) error {
 	var b bytes.Buffer
 	b.WriteString("# per-minute trace of one whole flight of the invented demo fleet\n")
-	b.WriteString(snapshotHeader)
+	b.WriteString(g.header())
 	var buf []byte
 	for _, r := range rows {
-		buf = appendRow(buf[:0], r)
+		buf = g.appendRow(buf[:0], r)
 		b.Write(buf)
 	}
 	return os.WriteFile(path, b.Bytes(), 0o644)
@@ -201,7 +207,7 @@ func Write(dir string, cfg Config) (Truth, error) {
 	for _, tr := range g.traceTails() {
 		rows := g.trace(tr.tt, tr.flight, tr.dep)
 		name := fmt.Sprintf("%s-%s-%s.csv", tr.tt.Tail, tr.flight, tr.dep.Format("20060102"))
-		if err := writeTrace(filepath.Join(dir, TraceDir, name), rows); err != nil {
+		if err := g.writeTrace(filepath.Join(dir, TraceDir, name), rows); err != nil {
 			return truth, err
 		}
 		truth.Traces = append(truth.Traces, TraceTruth{File: TraceDir + "/" + name, Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
