@@ -407,7 +407,7 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	fmt.Fprintf(w, "Fleet median recent deviation %s %%; %d tail(s) flagged.\n", signed(f.MedianRecentPct, 2), f.Flagged)
 	fmt.Fprintf(w, "Excess a year, net over the tails: %s t fuel, %s t CO2", signed(f.ExcessFuel/1000, 0), signed(f.CO2/1000, 0))
 	if e := r.Engine; len(e.Tails) > 0 {
-		fmt.Fprintf(w, " (airframe).\nEngine series, %d tail(s) with fan speed: median %s %%, %d flagged, %s t fuel,\n%s t CO2",
+		fmt.Fprintf(w, " (airframe).\nEngine series, %d tail(s) with fan speed: median %s %%, %d flagged;\n%s t fuel, %s t CO2",
 			len(e.Tails), signed(e.MedianRecentPct, 2), e.Flagged, signed(e.ExcessFuel/1000, 0), signed(e.CO2/1000, 0))
 	}
 	fmt.Fprint(w, ".\n")
@@ -432,9 +432,15 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	if mixed {
 		fmt.Fprint(tw, "type\t")
 	}
-	fmt.Fprint(tw, "level\tdrift\tlast step\tfuel\tCO2\t")
+	// CO2 is 3.16 × fuel: with a money column it gives way, so that the
+	// table fits 80 columns (the footer says so).
+	withCO2 := price <= 0
+	fmt.Fprint(tw, "level\tdrift\tlast step\tfuel\t")
+	if withCO2 {
+		fmt.Fprint(tw, "CO2\t")
+	}
 	if hasEngine {
-		fmt.Fprint(tw, "engine\teng fuel\t")
+		fmt.Fprint(tw, "engine\t")
 	}
 	if price > 0 {
 		fmt.Fprint(tw, "money\t")
@@ -444,9 +450,12 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	if mixed {
 		fmt.Fprint(tw, "\t")
 	}
-	fmt.Fprint(tw, "%\tpp/100d\tdate pp\tt/yr\tt/yr\t")
+	fmt.Fprint(tw, "%\tpp/100d\tdate pp\tt/yr\t")
+	if withCO2 {
+		fmt.Fprint(tw, "t/yr\t")
+	}
 	if hasEngine {
-		fmt.Fprint(tw, "%\tt/yr\t")
+		fmt.Fprint(tw, "%\t")
 	}
 	if price > 0 {
 		fmt.Fprint(tw, "k/yr\t")
@@ -463,16 +472,18 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		if mixed {
 			fmt.Fprintf(tw, "%s\t", a.Type)
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t", signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step,
-			signed(a.ExcessFuel/1000, 0), signed(a.CO2/1000, 0))
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t", signed(a.RecentPct, 2), signed(a.Drift.Slope, 2), step, signed(a.ExcessFuel/1000, 0))
+		if withCO2 {
+			fmt.Fprintf(tw, "%s\t", signed(a.CO2/1000, 0))
+		}
 		if hasEngine {
 			if e, ok := r.EngineTail(a.Tail); ok {
-				fmt.Fprintf(tw, "%s\t%s\t", signed(e.RecentPct, 2), signed(e.ExcessFuel/1000, 0))
+				fmt.Fprintf(tw, "%s\t", signed(e.RecentPct, 2))
 				for _, fl := range e.Flags {
-					flags = append(flags[:len(flags):len(flags)], "engine-"+fl)
+					flags = append(flags[:len(flags):len(flags)], "e-"+fl)
 				}
 			} else {
-				fmt.Fprint(tw, "n/a\tn/a\t")
+				fmt.Fprint(tw, "n/a\t")
 			}
 		}
 		if price > 0 {
@@ -504,12 +515,12 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	}
 	if hasEngine {
 		fmt.Fprintf(w, ".\nWith fan speed (N1) the level, drift and steps are the airframe's; engine: the\n"+
-			"engine series' level (fuel burnt against the model's for the thrust measured),\n"+
-			"eng fuel its excess fuel a year; n/a: thrust from fuel flow, the drag includes\n"+
-			"engine effects")
+			"engine series' level (fuel burnt against the model's for the thrust measured;\n"+
+			"its excess fuel is in the totals above and the JSON), e- its flags; n/a:\n"+
+			"thrust from fuel flow, the drag includes engine effects")
 	}
 	if price > 0 {
-		fmt.Fprintf(w, ";\nmoney: thousands per year at %g per kg of fuel", price)
+		fmt.Fprintf(w, ";\nmoney: thousands per year at %g per kg of fuel (CO2 is 3.16 × the fuel)", price)
 	}
 	fmt.Fprintf(w, ".\n%s\n", caution)
 }
