@@ -293,11 +293,17 @@ func (s *fleetScreen) render() {
 	eng := s.engineCol()
 	typ := s.typeCol()
 	spark := max(0, s.w-colMark-colTail-typ-colDev-colDrift-colStep-colFuel-colFlags-eng-4)
+	// Two header lines: what each column is, then its unit and period;
+	// a narrow sparkline gets short words rather than cut ones.
+	sparkHead1, sparkHead2 := "per flight", "dev %, all"
+	if spark < len(sparkHead1) {
+		sparkHead1, sparkHead2 = "trend", "dev %"
+	}
 	// Two header lines: what each column is, then its unit and period.
 	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel", colFuel) + padL("engine", eng) + " " + pad("flags", colFlags) + " " + pad("per flight", spark)
+		padL("fuel", colFuel) + padL("engine", eng) + " " + pad("flags", colFlags) + " " + pad(sparkHead1, spark)
 	h2 := pad("", colMark) + pad("", colTail) + pad("", typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
-		padL("t/yr", colFuel) + padL("%", eng) + " " + pad("", colFlags) + " " + pad("dev %, all", spark)
+		padL("t/yr", colFuel) + padL("%", eng) + " " + pad("", colFlags) + " " + pad(sparkHead2, spark)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {

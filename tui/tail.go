@@ -151,8 +151,17 @@ func (s *tailScreen) render() {
 	}
 	a := s.a
 	title := s.st.Title.Render(clean(a.Tail))
-	if len(a.Flags) > 0 {
-		title += "  " + s.st.Flag.Render("flags: "+strings.Join(a.Flags, " "))
+	if s.data.Roster.Single() == nil {
+		title += s.st.Muted.Render("  " + clean(a.Type))
+	}
+	flags := append([]string(nil), a.Flags...)
+	if e, ok := s.data.EngineTail(a.Tail); ok {
+		for _, f := range e.Flags {
+			flags = append(flags, "e-"+f)
+		}
+	}
+	if len(flags) > 0 {
+		title += "  " + s.st.Flag.Render("flags: "+strings.Join(flags, " "))
 	} else {
 		title += "  " + s.st.Improve.Render("no flags")
 	}

@@ -3,6 +3,11 @@ package tui
 import (
 	"strings"
 	"testing"
+
+	"dragdeck/feed"
+	"dragdeck/feed/demo"
+	"dragdeck/feed/pipeline"
+	"dragdeck/model"
 )
 
 func TestTailZoom(t *testing.T) {
@@ -108,5 +113,36 @@ func TestTailEngineSeries(t *testing.T) {
 		} else if _, ok := lineWith(v, "engine unknown (thrust from fuel flow)"); !ok {
 			t.Errorf("%s on fuel flow:\n%s", a.Tail, v)
 		}
+	}
+}
+
+// The Tail screen's title lists the engine series' flags (e-…) beside the
+// airframe's: a tail flagged for engine wear alone is not "no flags".
+func TestTailTitleEngineFlags(t *testing.T) {
+	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := demo.NewFleet(demo.Config{Tails: 24, Days: 400, Seed: 3, Type: ty})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Type: ty, Events: d.Events(), Config: model.DefaultTrendConfig()})
+	m := sized(NewData("test", r), 120, 40)
+	found := false
+	for _, e := range r.Engine.Tails {
+		if len(e.Flags) == 0 {
+			continue
+		}
+		found = true
+		m.tail.SetTail(e.Tail)
+		m.activate(scrTail)
+		title, _ := lineWith(m.View(), e.Tail+"  ")
+		if !strings.Contains(title, "e-"+e.Flags[0]) || strings.Contains(title, "no flags") {
+			t.Errorf("%s: title %q lacks its engine flags %v", e.Tail, title, e.Flags)
+		}
+	}
+	if !found {
+		t.Fatal("no tail with engine flags in the thrust-table demo")
 	}
 }
