@@ -38,14 +38,7 @@ type reportOut struct {
 		Fuel   float64  `json:"excess_fuel_kg_per_year"`
 		CO2    float64  `json:"co2_t_per_year"`
 		Source string   `json:"thrust_source"`
-		Engine *struct {
-			Dev   *float64 `json:"deviation_pct"`
-			Flags []string `json:"flags"`
-			Steps []struct {
-				Date    string  `json:"date"`
-				SizePct float64 `json:"size_pct"`
-			} `json:"steps"`
-		} `json:"engine"`
+		Engine *engineOut `json:"engine"`
 	} `json:"tails"`
 }
 
@@ -128,18 +121,21 @@ func TestReportFindsTheTruth(t *testing.T) {
 	}
 }
 
-// checkEngineTruth compares a tail's engine series with what the demo
-// planted: fan speed or the fuel-flow fallback, the engine flags exactly,
-// the recent level within 0.5 pp, a shop visit as an engine step of the
-// right date (7 days) and size (0.5 pp).
-func checkEngineTruth(t *testing.T, tail string, tt demo.TailTruth, source string, eng *struct {
+// engineOut is a tail's engine series in the report JSON.
+type engineOut struct {
 	Dev   *float64 `json:"deviation_pct"`
 	Flags []string `json:"flags"`
 	Steps []struct {
 		Date    string  `json:"date"`
 		SizePct float64 `json:"size_pct"`
 	} `json:"steps"`
-}) {
+}
+
+// checkEngineTruth compares a tail's engine series with what the demo
+// planted: fan speed or the fuel-flow fallback, the engine flags exactly,
+// the recent level within 0.5 pp, a shop visit as an engine step of the
+// right date (7 days) and size (0.5 pp).
+func checkEngineTruth(t *testing.T, tail string, tt demo.TailTruth, source string, eng *engineOut) {
 	t.Helper()
 	if !tt.FanSpeed {
 		if source != "fuel flow" || eng != nil {
