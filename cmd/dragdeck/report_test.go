@@ -34,10 +34,10 @@ type reportOut struct {
 			Date    string  `json:"date"`
 			SizePct float64 `json:"size_pct"`
 		} `json:"steps"`
-		Flags  []string `json:"flags"`
-		Fuel   float64  `json:"excess_fuel_kg_per_year"`
-		CO2    float64  `json:"co2_t_per_year"`
-		Source string   `json:"thrust_source"`
+		Flags  []string   `json:"flags"`
+		Fuel   float64    `json:"excess_fuel_kg_per_year"`
+		CO2    float64    `json:"co2_t_per_year"`
+		Source string     `json:"thrust_source"`
 		Engine *engineOut `json:"engine"`
 	} `json:"tails"`
 }
