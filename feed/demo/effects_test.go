@@ -3,6 +3,8 @@ package demo
 import (
 	"math"
 	"testing"
+
+	"dragdeck/feed"
 )
 
 // Each sensor effect is recorded in the truth, --clean (Config.Clean)
@@ -44,5 +46,32 @@ func TestEffectsSwitch(t *testing.T) {
 	}
 	if other != 0 {
 		t.Errorf("switching the weight error off moved other columns by %g", other)
+	}
+}
+
+// With a thrust table about three tails in four record fan speed, and at
+// least one older recorder does not, whatever the size.
+func TestFanSpeedShare(t *testing.T) {
+	ty, err := feed.LoadType("../../testdata/types/twin_thrust.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, n := range []int{2, 5, 12, 40} {
+		d, err := NewFleet(Config{Tails: n, Days: 10, Seed: 4, Type: ty})
+		if err != nil {
+			t.Fatal(err)
+		}
+		with := 0
+		for _, tt := range d.Truth.Tails {
+			if tt.FanSpeed != (tt.Engine != nil) {
+				t.Errorf("%s: fan speed %v, engine truth %v", tt.Tail, tt.FanSpeed, tt.Engine)
+			}
+			if tt.FanSpeed {
+				with++
+			}
+		}
+		if with == 0 || with == n || math.Abs(float64(with)/float64(n)-0.75) > 0.26 {
+			t.Errorf("%d tails: %d with fan speed", n, with)
+		}
 	}
 }

@@ -17,8 +17,8 @@ const (
 )
 
 // fanSpeedShare is the share of tails with fan speed on their recorders
-// when the type has a thrust table; the others are older recorders
-// without it.
+// when the type has a thrust table (rounded; at least one tail is left
+// without): the others are older recorders.
 const fanSpeedShare = 0.75
 
 // EngineTruth is what was planted in a tail's engines and fuel-flow meter:
@@ -75,9 +75,13 @@ func (g *demoGen) assignEngines() {
 	order := []string{EngineWear, EngineMeterBias, EngineShopVisit}
 	recentAt := g.end.AddDate(0, 0, -15)
 	var levels []float64
-	for _, i := range rng.Perm(n) {
+	withN1 := int(math.Round(fanSpeedShare * float64(n)))
+	if n > 1 {
+		withN1 = min(withN1, n-1) // at least one older recorder
+	}
+	for k, i := range rng.Perm(n) {
 		tt := &g.tails[i]
-		if rng.Float64() >= fanSpeedShare {
+		if k >= withN1 {
 			continue // an older recorder: no fan speed
 		}
 		tt.FanSpeed = true
