@@ -12,9 +12,10 @@ func runDemo(e *env, args []string) error {
 	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE] [--clean]",
 		`Writes the invented demo fleet into DIR: snapshots/fleet.csv (cruise
 snapshots of every tail, with a few broken rows on purpose), type.toml (the
-demo type), events.csv (repairs and washes), traces/ (per-minute records of a
-few whole flights, for replay) and truth.json (what was injected per tail:
-drift, steps, offsets, expected flags, and the broken rows). The data ends on
+demo type), fleet.toml (the fleet file: each tail's type), events.csv
+(repairs, washes, shop visits), traces/ (per-minute records of a few whole
+flights, for replay) and truth.json (what was injected per tail: drift,
+steps, offsets, engines, expected flags, and the broken rows). The data ends on
 a fixed date in the past (2026-06-30) and runs back --days from it. The same
 seed gives the same bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
 1.1 million rows. --type flies another aircraft type: weights scale with its
@@ -66,6 +67,7 @@ truth.json lists them, and --clean leaves them all out.`,
 	fmt.Fprintf(e.stdout, "  %s  the truth: %d tails should be flagged (fleet median %.2f %%)\n",
 		filepath.Join(*out, demo.TruthFile), flagged, math.Round(truth.FleetMedianPct*100)/100)
 	fmt.Fprintf(e.stdout, "  %s  the demo type\n", filepath.Join(*out, demo.TypeFile))
+	fmt.Fprintf(e.stdout, "  %s  the fleet file (the type of each tail; use it with --fleet)\n", filepath.Join(*out, demo.FleetFile))
 	fmt.Fprintln(e.stdout, "All of it is invented data.")
 	return nil
 }

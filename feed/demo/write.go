@@ -10,6 +10,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strings"
 	"time"
 
 	"dragdeck/feed"
@@ -20,6 +21,7 @@ import (
 const (
 	SnapshotFile = "snapshots/fleet.csv"
 	TypeFile     = "type.toml"
+	FleetFile    = "fleet.toml"
 	EventsFile   = "events.csv"
 	TruthFile    = "truth.json"
 	TraceDir     = "traces"
@@ -82,6 +84,18 @@ func (g *demoGen) events() []Event {
 	}
 	sort.SliceStable(ev, func(a, b int) bool { return ev[a].Time < ev[b].Time })
 	return ev
+}
+
+// fleetFile is the fleet file (DESIGN.md §3.4) of the demo: every tail on
+// the one type, named by the first word of the type's name.
+func (g *demoGen) fleetFile() []byte {
+	name := strings.Fields(g.ty.Name + " type")[0]
+	var b bytes.Buffer
+	fmt.Fprintf(&b, "# fleet file of the invented demo fleet: the type of each tail\nname = %q\n\n[types]\n%q = %q\n", Airline, name, TypeFile)
+	for _, tt := range g.tails {
+		fmt.Fprintf(&b, "\n[[tail]]\nid = %q\ntype = %q\n", tt.Tail, name)
+	}
+	return b.Bytes()
 }
 
 func writeEvents(w io.Writer, ev []Event) error {
@@ -196,6 +210,9 @@ func Write(dir string, cfg Config) (Truth, error) {
 		return truth, err
 	}
 	if err := os.WriteFile(filepath.Join(dir, TypeFile), feed.FormatType(g.ty), 0o644); err != nil {
+		return truth, err
+	}
+	if err := os.WriteFile(filepath.Join(dir, FleetFile), g.fleetFile(), 0o644); err != nil {
 		return truth, err
 	}
 	truth.Events = g.events()
