@@ -285,6 +285,13 @@ func (s *fleetScreen) render() {
 	if d.Fleet.Flagged > 0 {
 		flagged = s.st.Flag.Render(flagged)
 	}
+	if e := d.Engine; len(e.Tails) > 0 {
+		eng := fmt.Sprintf(" · engines %d flagged", e.Flagged)
+		if e.Flagged > 0 {
+			eng = s.st.Flag.Render(eng)
+		}
+		flagged += eng
+	}
 	line2 := summary + flagged + s.st.Muted.Render(" · by "+fleetOrders[s.order].name)
 	if s.filtering || s.filter.Value() != "" {
 		line2 += "   " + s.filter.View()

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -227,6 +228,7 @@ func engineResult(t *testing.T) (*pipeline.Result, string) {
 	recs := append([]feed.Record(nil), d.Records...)
 	fan := recs[0].Tail
 	for i := range recs {
+		recs[i].Snap.N1 = 0 // the others on fuel flow
 		if recs[i].Tail == fan {
 			recs[i].Snap.N1 = 83.5
 		}
@@ -277,5 +279,19 @@ func TestFleetTypeColumn(t *testing.T) {
 	}
 	if _, ok := lineWith(v, "DT101"); ok {
 		t.Errorf("filter by type kept DT101:\n%s", v)
+	}
+}
+
+// The Fleet header counts the engine series' flagged tails beside the
+// airframe's.
+func TestFleetHeaderEngineFlags(t *testing.T) {
+	d := demoFleet(t)
+	if d.Engine.Flagged == 0 {
+		t.Fatal("the built-in demo has no flagged engine series")
+	}
+	m := sized(d, 100, 30)
+	want := fmt.Sprintf("%d flagged · engines %d flagged", d.Fleet.Flagged, d.Engine.Flagged)
+	if _, ok := lineWith(checkFrame(t, m, 100, 30), want); !ok {
+		t.Errorf("header without %q", want)
 	}
 }

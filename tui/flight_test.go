@@ -170,7 +170,7 @@ func TestFlightThrustSource(t *testing.T) {
 	}
 	d := demoFleet(t)
 	recs := append([]feed.Record(nil), d.Records[d.Fleet.Tails[0].Tail][:2]...)
-	recs[0].Snap.N1 = 83.5
+	recs[0].Snap.N1, recs[1].Snap.N1 = 83.5, 0 // the second on fuel flow
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)
 	s.Replay(model.SingleType(ty), d.Config, "T", "F", recs, 0, math.NaN())

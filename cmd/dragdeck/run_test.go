@@ -294,9 +294,9 @@ func TestPointN1(t *testing.T) {
 	if c.Source != "fuel flow" || c.N1k != nil || c.Engine != nil {
 		t.Errorf("without N1: %+v", c)
 	}
-	code, _, errs := runArgs("point", "--weight-kg", "65000", "--alt-ft", "35000", "--sat-c", "-54", "--mach", "0.78", "--fuel-flow-kgph", "2400", "--n1-pct", "83.5")
+	code, _, errs := runArgs("point", "--type", "../../testdata/types/widebody.toml", "--weight-kg", "180000", "--alt-ft", "35000", "--sat-c", "-54", "--mach", "0.83", "--fuel-flow-kgph", "6400", "--n1-pct", "83.5")
 	if code != 0 || !strings.Contains(errs, "no [thrust] table") {
-		t.Errorf("N1 with the demo type (no table): exit %d, stderr %q", code, errs)
+		t.Errorf("N1 with a type without a table: exit %d, stderr %q", code, errs)
 	}
 	code, _, errs = runArgs(append(append([]string{}, base...), "--fuel-flow-kgph", "2400", "--n1-pct", "140")...)
 	if code != exitUsage || !strings.Contains(errs, "--n1-pct") {
