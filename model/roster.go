@@ -109,6 +109,10 @@ func (r *Roster) TypeNames() []string { return typeNames(r.Types) }
 // Single returns the type of a single-type roster, or nil for a fleet file.
 func (r *Roster) Single() *Type { return r.single }
 
+// Mixed reports whether the roster has more than one type (a fleet file
+// of one type is not mixed).
+func (r *Roster) Mixed() bool { return len(r.Types) > 1 }
+
 // Tails returns the tails the roster names, sorted (none for a single-type
 // roster, which names none and accepts all).
 func (r *Roster) Tails() []string {

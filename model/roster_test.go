@@ -57,6 +57,10 @@ func TestRosterAt(t *testing.T) {
 	if got := strings.Join(r.Tails(), ","); got != "T1,T2" {
 		t.Errorf("tails %s", got)
 	}
+	one, err := NewRoster("one type", map[string]*Type{"A": a}, []RosterEntry{{Tail: "T1", Type: "A"}})
+	if err != nil || !r.Mixed() || one.Mixed() || SingleType(a).Mixed() {
+		t.Errorf("mixed: two types %v, a fleet file of one %v (%v), a single type %v", r.Mixed(), one.Mixed(), err, SingleType(a).Mixed())
+	}
 }
 
 func TestSingleTypeRoster(t *testing.T) {

@@ -25,9 +25,9 @@ func DemoData() (*Data, error) {
 	if err != nil {
 		return nil, err
 	}
-	r := pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Type: d.Type, Events: d.Events(),
+	r := pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Roster: d.Roster, Events: d.Events(),
 		Config: model.DefaultTrendConfig(), KeepRecords: true})
-	return NewData("built-in demo: "+demo.Airline, r), nil
+	return NewData("built-in demo, invented data", r), nil
 }
 
 // Condition is the cruise condition the Cruise and Turns screens work at:

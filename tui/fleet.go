@@ -238,20 +238,42 @@ const (
 	colTail  = 8
 	colDev   = 7
 	colDrift = 8
-	colStep  = 17
+	colStep  = 16 // "2026-03-01 +3.5"
 	colFuel  = 7
 	colFlags = 14
-	colEng   = 7 // the engine series' level, when any tail has one
-	colType  = 9 // the tail's type, with a fleet file of several types
+	colEng   = 7  // the engine series' level, when any tail has one
+	colType  = 10 // at most, for the tail's type with a fleet file of several types
+	minSpark = 6  // a narrower sparkline is left out
 )
 
-// typeCol is the width of the type column: colType with a fleet file,
-// else 0 (one type, named in the header).
-func (s *fleetScreen) typeCol() int {
-	if s.data != nil && s.data.Roster.Single() == nil {
-		return colType
+// fleetCols are the widths of the columns that depend on the data and the
+// screen: the type (0 with one type, named in the header), the engine
+// level (0 when no tail has an engine series), the flags and the
+// sparkline (0 when it does not fit: the flags then take what is left).
+type fleetCols struct{ typ, eng, flags, spark int }
+
+func (s *fleetScreen) cols() fleetCols {
+	c := fleetCols{eng: s.engineCol(), flags: colFlags}
+	if s.data != nil && s.data.Roster.Mixed() {
+		for _, n := range s.data.Roster.TypeNames() {
+			c.typ = max(c.typ, min(colType, len([]rune(n))+1))
+		}
 	}
-	return 0
+	fixed := colMark + colTail + c.typ + colDev + colDrift + 1 + colStep + colFuel + c.eng + 1
+	c.spark = s.w - fixed - colFlags - 1
+	if c.spark < minSpark {
+		c.spark, c.flags = 0, max(5, s.w-fixed)
+	}
+	return c
+}
+
+// sparkCell is the sparkline cell with its leading space, empty when the
+// sparkline is left out.
+func (c fleetCols) sparkCell(v string) string {
+	if c.spark == 0 {
+		return ""
+	}
+	return " " + pad(v, c.spark)
 }
 
 // engineCol is the width of the engine column: colEng when some tail has
@@ -297,20 +319,17 @@ func (s *fleetScreen) render() {
 		line2 += "   " + s.filter.View()
 	}
 	b.WriteString(truncate(line2, s.w) + "\n")
-	eng := s.engineCol()
-	typ := s.typeCol()
-	spark := max(0, s.w-colMark-colTail-typ-colDev-colDrift-colStep-colFuel-colFlags-eng-4)
+	cols := s.cols()
 	// Two header lines: what each column is, then its unit and period;
 	// a narrow sparkline gets short words rather than cut ones.
 	sparkHead1, sparkHead2 := "per flight", "dev %, all"
-	if spark < len(sparkHead1) {
+	if cols.spark < len(sparkHead1) {
 		sparkHead1, sparkHead2 = "trend", "dev %"
 	}
-	// Two header lines: what each column is, then its unit and period.
-	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel", colFuel) + padL("engine", eng) + " " + pad("flags", colFlags) + " " + pad(sparkHead1, spark)
-	h2 := pad("", colMark) + pad("", colTail) + pad("", typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
-		padL("t/yr", colFuel) + padL("%", eng) + " " + pad("", colFlags) + " " + pad(sparkHead2, spark)
+	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", cols.typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
+		padL("fuel", colFuel) + padL("engine", cols.eng) + " " + pad("flags", cols.flags) + cols.sparkCell(sparkHead1)
+	h2 := pad("", colMark) + pad("", colTail) + pad("", cols.typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
+		padL("t/yr", colFuel) + padL("%", cols.eng) + " " + pad("", cols.flags) + cols.sparkCell(sparkHead2)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {
@@ -331,14 +350,14 @@ func (s *fleetScreen) render() {
 	}
 	s.offset = max(0, min(s.offset, max(0, len(s.rows)-lh)))
 	for i := s.offset; i < min(len(s.rows), s.offset+lh); i++ {
-		b.WriteString(s.row(s.rows[i], i == s.cursor, spark) + "\n")
+		b.WriteString(s.row(s.rows[i], i == s.cursor, cols) + "\n")
 	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.TrimSuffix(b.String(), "\n"))
 }
 
 // row draws one tail; the selected row starts with the selection marker
 // (visible without colour) and is drawn reversed.
-func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) string {
+func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols) string {
 	step := "-"
 	stepStyle := s.st.Text
 	if k := len(a.Steps); k > 0 {
@@ -352,7 +371,7 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) stri
 	}
 	all := a.Flags
 	engine := ""
-	if eng := s.engineCol(); eng > 0 {
+	if eng := cols.eng; eng > 0 {
 		engine = padL("n/a", eng) // thrust from fuel flow
 		if e, ok := s.data.EngineTail(a.Tail); ok {
 			engine = padL(fmtSigned(e.RecentPct, 2), eng)
@@ -365,17 +384,21 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, spark int) stri
 	if flags == "" {
 		flags = "-"
 	}
-	spk := s.sparkFor(a, spark)
-	num := pad(clean(a.Tail), colTail) + pad(truncate(clean(a.Type), max(0, s.typeCol()-1)), s.typeCol()) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
-	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
-	if selected {
-		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+pad(flags, colFlags)+" "+spk, s.w-colMark))
+	spk := ""
+	if cols.spark > 0 {
+		spk = " " + s.sparkFor(a, cols.spark)
 	}
-	flagCell := pad(flags, colFlags)
+	num := pad(clean(a.Tail), colTail) + pad(truncate(clean(a.Type), max(0, cols.typ-1)), cols.typ) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
+	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
+	flagText := pad(truncate(flags, cols.flags), cols.flags)
+	if selected {
+		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+flagText+spk, s.w-colMark))
+	}
+	flagCell := flagText
 	if len(all) > 0 {
 		flagCell = s.st.Flag.Render(flagCell)
 	}
-	return truncate(noMark+num+stepStyle.Render(pad(step, colStep))+fuel+flagCell+" "+s.st.Accent.Render(spk), s.w)
+	return truncate(noMark+num+stepStyle.Render(pad(step, colStep))+fuel+flagCell+s.st.Accent.Render(spk), s.w)
 }
 
 // sparkFor returns the tail's sparkline of width w, drawn once per data and

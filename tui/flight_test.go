@@ -164,12 +164,10 @@ func TestFlightChartsTheCurrentFlight(t *testing.T) {
 // engine deviation apart, or fuel flow, when the drag includes engine
 // effects.
 func TestFlightThrustSource(t *testing.T) {
-	ty, err := feed.LoadType("../testdata/types/twin_thrust.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
 	d := demoFleet(t)
-	recs := append([]feed.Record(nil), d.Records[d.Fleet.Tails[0].Tail][:2]...)
+	tail := d.Fleet.Tails[0].Tail
+	ty := d.TypeOf(tail)
+	recs := append([]feed.Record(nil), d.Records[tail][:2]...)
 	recs[0].Snap.N1, recs[1].Snap.N1 = 83.5, 0 // the second on fuel flow
 	s := newFlightScreen(NewStyles(DefaultTheme))
 	s.SetSize(100, 30)

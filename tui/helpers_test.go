@@ -54,7 +54,7 @@ func smallData(t testing.TB, tails, days int) *Data {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return NewData("test", pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Type: d.Type, Events: d.Events(),
+	return NewData("test", pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Roster: d.Roster, Events: d.Events(),
 		Config: model.DefaultTrendConfig(), KeepRecords: true}))
 }
 

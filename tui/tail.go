@@ -151,7 +151,7 @@ func (s *tailScreen) render() {
 	}
 	a := s.a
 	title := s.st.Title.Render(clean(a.Tail))
-	if s.data.Roster.Single() == nil {
+	if s.data.Roster.Mixed() {
 		title += s.st.Muted.Render("  " + clean(a.Type))
 	}
 	flags := append([]string(nil), a.Flags...)
@@ -339,9 +339,9 @@ func (s *tailScreen) facts(w, h int) string {
 	if c.FuelPrice > 0 {
 		add(s.st.Text, "       %s a year at %g per kg", fmtSigned(a.Money, 0), c.FuelPrice)
 	}
-	if p := a.Polar; a.PolarErr == nil {
-		add(s.st.Muted, "polar  since %s: CD0 %.5f (base %.5f) · k %.4f (%.4f)", a.PolarFrom.Format("2006-01-02"), p.CD0, s.data.TypeOf(a.Tail).CD0, p.K, s.data.TypeOf(a.Tail).K())
-	} else {
+	if p, ty := a.Polar, s.data.TypeOf(a.Tail); a.PolarErr == nil && ty != nil {
+		add(s.st.Muted, "polar  since %s: CD0 %.5f (base %.5f) · k %.4f (%.4f)", a.PolarFrom.Format("2006-01-02"), p.CD0, ty.CD0, p.K, ty.K())
+	} else if a.PolarErr != nil {
 		add(s.st.Muted, "polar  since %s: no fit (%v)", a.PolarFrom.Format("2006-01-02"), a.PolarErr)
 	}
 	for len(lines) < h {

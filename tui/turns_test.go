@@ -35,7 +35,7 @@ func TestTurnsBuffet(t *testing.T) {
 		t.Errorf("0° row: %+v", r)
 	}
 	c := m.turns.c
-	min := model.MinBuffetMach(m.data.Type, c.Weight, model.AirISA(c.Altitude, c.ISADev))
+	min := model.MinBuffetMach(m.typ(), c.Weight, model.AirISA(c.Altitude, c.ISADev))
 	for i := 0; i < 60; i++ {
 		press(m, "-")
 	}
@@ -62,7 +62,7 @@ func TestTurnsBuffet(t *testing.T) {
 	for i := 0; i < 10; i++ {
 		press(m, "+")
 	}
-	if math.IsNaN(m.turns.c.Mach) || m.turns.c.Mach > m.data.Type.MMO {
+	if math.IsNaN(m.turns.c.Mach) || m.turns.c.Mach > m.typ().MMO {
 		t.Errorf("Mach %g beyond MMO", m.turns.c.Mach)
 	}
 }

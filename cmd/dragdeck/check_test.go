@@ -68,7 +68,7 @@ func TestDemoCommand(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	for _, f := range []string{demo.SnapshotFile, demo.TypeFile, demo.EventsFile, demo.TruthFile} {
+	for _, f := range []string{demo.SnapshotFile, demo.FleetFile, demo.TypeFilePath("DD-200"), demo.EventsFile, demo.TruthFile} {
 		if _, err := os.Stat(filepath.Join(dir, f)); err != nil {
 			t.Errorf("%s not written: %v", f, err)
 		}

@@ -6,25 +6,33 @@ import (
 	"path/filepath"
 
 	"dragdeck/feed/demo"
+	"dragdeck/model"
 )
 
 func runDemo(e *env, args []string) error {
 	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE] [--clean]",
 		`Writes the invented demo fleet into DIR: snapshots/fleet.csv (cruise
-snapshots of every tail, with a few broken rows on purpose), type.toml (the
-demo type), fleet.toml (the fleet file: each tail's type), events.csv
-(repairs, washes, shop visits), traces/ (per-minute records of a few whole
-flights, for replay) and truth.json (what was injected per tail: drift,
-steps, offsets, engines, expected flags, and the broken rows). The data ends on
-a fixed date in the past (2026-06-30) and runs back --days from it. The same
-seed gives the same bytes. About 4 snapshots per tail per day: --tails 400 --days 730 gives about
-1.1 million rows. --type flies another aircraft type: weights scale with its
+snapshots of every tail, with a few broken rows on purpose), fleet.toml (the
+fleet file: each tail's type, use it with --fleet), types/ (one type file per
+type), events.csv (repairs, washes, shop visits, engine changes), traces/
+(per-minute records of a few whole flights, for replay) and truth.json (what
+was injected per tail: drift, steps, offsets, engines, retrofits, expected
+flags, and the broken rows). The data ends on a fixed date in the past
+(2026-06-30) and runs back --days from it. The same seed gives the same bytes.
+About 4 snapshots per tail per day: --tails 400 --days 730 gives about 1.1
+million rows.
+
+The fleet flies three invented types: the DD-200 twin (half the tails), its
+wingtip-device variant DD-200W (a fifth, and one DD-200 retrofitted half-way)
+and the DW-300 long-range twin (the rest). All three have thrust tables; three
+tails in four record fan speed (n1_pct), the others are older recorders.
+--type FILE flies every tail on that one type instead: weights scale with its
 wing area and buffet limit, speeds with its maximum-range Mach. The recorded
 snapshots carry the errors of real recorders (weight per flight 0.3 %, Mach
 0.001, SAT 0.3 K, fuel flow 0.4 % per flight, the seasonal temperature);
 truth.json lists them, and --clean leaves them all out.`,
 		"dragdeck demo --out /tmp/fleet --tails 24 --days 730 --seed 1")
-	typ := fs.typeFlag()
+	typ := fs.str("type", "FILE", "", "fly every tail on this one type (TOML); default: the built-in mixed fleet of three types")
 	out := fs.str("out", "DIR", "", "folder to write into, created if needed (required)")
 	tails := fs.Int("tails", 24, "number of aircraft")
 	days := fs.Int("days", 730, "days of data")
@@ -45,9 +53,12 @@ truth.json lists them, and --clean leaves them all out.`,
 	case *seed == 0:
 		return usageErrorf("--seed: must be > 0")
 	}
-	t, err := loadType(*typ)
-	if err != nil {
-		return err
+	var t *model.Type // nil: the built-in mixed fleet
+	if *typ != "" {
+		var err error
+		if t, err = loadType(*typ); err != nil {
+			return err
+		}
 	}
 	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t, Clean: *clean})
 	if err != nil {
@@ -66,7 +77,9 @@ truth.json lists them, and --clean leaves them all out.`,
 	fmt.Fprintf(e.stdout, "  %s  %d whole-flight traces\n", filepath.Join(*out, demo.TraceDir), len(truth.Traces))
 	fmt.Fprintf(e.stdout, "  %s  the truth: %d tails should be flagged (fleet median %.2f %%)\n",
 		filepath.Join(*out, demo.TruthFile), flagged, math.Round(truth.FleetMedianPct*100)/100)
-	fmt.Fprintf(e.stdout, "  %s  the demo type\n", filepath.Join(*out, demo.TypeFile))
+	for _, ty := range truth.Types {
+		fmt.Fprintf(e.stdout, "  %s  %s, %d tails\n", filepath.Join(*out, ty.File), ty.TypeName, ty.Tails)
+	}
 	fmt.Fprintf(e.stdout, "  %s  the fleet file (the type of each tail; use it with --fleet)\n", filepath.Join(*out, demo.FleetFile))
 	fmt.Fprintln(e.stdout, "All of it is invented data.")
 	return nil

@@ -63,7 +63,7 @@ func TestFitRecoversDemoPolar(t *testing.T) {
 		for i := range v {
 			v[i], _ = strconv.ParseFloat(m[i+1], 64)
 		}
-		cd0 := ty.CD0 + tt.OffsetPct/100*truth.ReferenceCD
+		cd0 := ty.CD0 + tt.OffsetPct/100*truth.ReferenceCD[tt.Type]
 		zCD0 := (v[0] - cd0) / v[1]
 		zK := (v[2] - ty.K()) / v[3]
 		if math.Abs(zCD0) > 3 || math.Abs(zK) > 3 {

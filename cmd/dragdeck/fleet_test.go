@@ -9,6 +9,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"dragdeck/feed/demo"
 )
 
 // mixedFleet writes snapshots of the test fleet testdata/fleets/mixed (DT101
@@ -149,22 +151,22 @@ func TestFleetFlagErrors(t *testing.T) {
 	}
 }
 
-// The demo's fleet file names every tail with the demo type: the report
-// with --fleet is the report with --type, tail by tail.
+// The fleet file of a one-type demo names every tail with that type: the
+// report with --fleet is the report with --type, tail by tail.
 func TestDemoFleetFile(t *testing.T) {
 	dir := t.TempDir()
-	if code, _, errs := runArgs("demo", "--out", dir, "--tails", "6", "--days", "120", "--seed", "2"); code != 0 {
+	if code, _, errs := runArgs("demo", "--out", dir, "--tails", "6", "--days", "120", "--seed", "2", "--type", "../../testdata/types/widebody.toml"); code != 0 {
 		t.Fatal(errs)
 	}
 	snaps := filepath.Join(dir, "snapshots")
-	byType := runFleetReport(t, "--type", filepath.Join(dir, "type.toml"), snaps)
+	byType := runFleetReport(t, "--type", filepath.Join(dir, demo.TypeFilePath("WB-9")), snaps)
 	byFleet := runFleetReport(t, "--fleet", filepath.Join(dir, "fleet.toml"), snaps)
 	if len(byType.Tails) != 6 || len(byFleet.Tails) != 6 || byType.Rejected != byFleet.Rejected {
 		t.Fatalf("tails %d / %d, rejected %d / %d", len(byType.Tails), len(byFleet.Tails), byType.Rejected, byFleet.Rejected)
 	}
 	for i, a := range byType.Tails {
 		b := byFleet.Tails[i]
-		if a.Tail != b.Tail || fmtPtr(a.DeviationPct) != fmtPtr(b.DeviationPct) || b.Type != "DD-200" {
+		if a.Tail != b.Tail || fmtPtr(a.DeviationPct) != fmtPtr(b.DeviationPct) || b.Type != "WB-9" {
 			t.Errorf("tail %d: --type %s %s, --fleet %s %s (type %q)", i, a.Tail, fmtPtr(a.DeviationPct), b.Tail, fmtPtr(b.DeviationPct), b.Type)
 		}
 	}

@@ -393,7 +393,7 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	f, c := r.Fleet, r.Config
 	price := c.FuelPrice
-	mixed := r.Roster.Single() == nil
+	mixed := r.Roster.Mixed()
 	span := "no data"
 	if !r.First.IsZero() {
 		span = r.First.Format(time.DateOnly) + " … " + r.Last.Format(time.DateOnly) + " UTC"
@@ -501,7 +501,9 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	if len(why) > 0 {
 		fmt.Fprintf(w, "\nNo recent level (shown as -):\n")
 		for _, s := range why {
-			fmt.Fprintf(w, "  %s\n", s)
+			for _, line := range wrapWords(s, 80-2, 2) {
+				fmt.Fprintf(w, "  %s\n", line)
+			}
 		}
 	}
 	if mixed {
@@ -510,7 +512,7 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 	fmt.Fprintf(w, "\nlevel: median per-flight drag deviation of the last %g days. drift: pp per\n"+
 		"100 days over the trailing %g days (Theil–Sen). last step: date and size in pp.\n"+
 		"fuel, CO2: excess per year at %g cruise hours", c.RecentDays, c.DriftDays, c.CruiseHours)
-	if mixed {
+	if r.Roster.Single() == nil {
 		fmt.Fprint(w, " (or the fleet file's, per tail)")
 	}
 	if hasEngine {
@@ -531,4 +533,32 @@ func signed(v float64, prec int) string {
 		return "-"
 	}
 	return fmt.Sprintf("%+.*f", prec, v)
+}
+
+// wrapWords breaks s at spaces into lines of at most width runes (a longer
+// word stands alone), the lines after the first indented by indent spaces
+// (within the width).
+func wrapWords(s string, width, indent int) []string {
+	var lines []string
+	line := ""
+	for _, word := range strings.Fields(s) {
+		limit := width
+		if len(lines) > 0 {
+			limit -= indent
+		}
+		switch {
+		case line == "":
+			line = word
+		case len([]rune(line))+1+len([]rune(word)) <= limit:
+			line += " " + word
+		default:
+			lines = append(lines, line)
+			line = word
+		}
+	}
+	lines = append(lines, line)
+	for i := 1; i < len(lines); i++ {
+		lines[i] = strings.Repeat(" ", indent) + lines[i]
+	}
+	return lines
 }

@@ -23,6 +23,7 @@ type reportOut struct {
 	} `json:"fleet"`
 	Tails []struct {
 		Tail    string     `json:"tail"`
+		Type    string     `json:"type"`
 		Points  int        `json:"points"`
 		Flights int        `json:"flights"`
 		First   string     `json:"first"`
@@ -51,8 +52,9 @@ func TestReportFindsTheTruth(t *testing.T) {
 		name string
 		args []string
 	}{
-		{"demo type, 24 tails, 2 years", []string{"--tails", "24", "--days", "730", "--seed", "1"}},
-		{"demo type, 40 tails, 500 days", []string{"--tails", "40", "--days", "500", "--seed", "21"}},
+		// three types, a wingtip retrofit half-way, an engine change
+		{"built-in mixed fleet, 24 tails, 2 years", []string{"--tails", "24", "--days", "730", "--seed", "1"}},
+		{"built-in mixed fleet, 40 tails, 500 days", []string{"--tails", "40", "--days", "500", "--seed", "21"}},
 		{"widebody type, 30 tails", []string{"--tails", "30", "--days", "650", "--seed", "5", "--type", "../../testdata/types/widebody.toml"}},
 		// fan speed on most tails: engine wear, a meter bias and a shop
 		// visit planted on steady airframes
@@ -70,7 +72,7 @@ func TestReportFindsTheTruth(t *testing.T) {
 			if err := json.Unmarshal(js, &truth); err != nil {
 				t.Fatal(err)
 			}
-			code, out, errs := runArgs("report", "--format", "json", "--type", filepath.Join(dir, demo.TypeFile),
+			code, out, errs := runArgs("report", "--format", "json", "--fleet", filepath.Join(dir, demo.FleetFile),
 				"--events", filepath.Join(dir, demo.EventsFile), filepath.Join(dir, "snapshots"))
 			if code != 0 {
 				t.Fatalf("report: exit %d %s", code, errs)
@@ -95,6 +97,13 @@ func TestReportFindsTheTruth(t *testing.T) {
 			}
 			for _, r := range rep.Tails {
 				tt := byTail[r.Tail]
+				want := tt.Type
+				if tt.Retrofit != nil {
+					want = tt.Retrofit.Type
+				}
+				if r.Type != want {
+					t.Errorf("%s: type %q, fleet file says %q at the end", r.Tail, r.Type, want)
+				}
 				if strings.Join(r.Flags, ",") != strings.Join(tt.ExpectedFlags, ",") {
 					t.Errorf("%s (%s): flags %v, truth %v", r.Tail, tt.Role, r.Flags, tt.ExpectedFlags)
 				}
@@ -230,7 +239,7 @@ func TestReportPlots(t *testing.T) {
 	dir := t.TempDir()
 	runArgs("demo", "--out", dir, "--tails", "5", "--days", "120", "--seed", "2")
 	plots := filepath.Join(dir, "plots")
-	code, _, errs := runArgs("report", "--events", filepath.Join(dir, demo.EventsFile), "--plots", plots, filepath.Join(dir, "snapshots"))
+	code, _, errs := runArgs("report", "--fleet", filepath.Join(dir, demo.FleetFile), "--events", filepath.Join(dir, demo.EventsFile), "--plots", plots, filepath.Join(dir, "snapshots"))
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
@@ -441,7 +450,7 @@ func TestReportTableWidthWithEngines(t *testing.T) {
 		t.Fatal(errs)
 	}
 	for _, extra := range [][]string{nil, {"--fuel-price-per-kg", "0.9"}} {
-		args := append(append([]string{"report", "--events", filepath.Join(dir, demo.EventsFile), "--type", filepath.Join(dir, demo.TypeFile)}, extra...), filepath.Join(dir, "snapshots"))
+		args := append(append([]string{"report", "--events", filepath.Join(dir, demo.EventsFile), "--fleet", filepath.Join(dir, demo.FleetFile)}, extra...), filepath.Join(dir, "snapshots"))
 		code, out, errs := runArgs(args...)
 		if code != 0 || !strings.Contains(out, "e-") {
 			t.Fatalf("%v: exit %d %s (want engine flags)\n%s", extra, code, errs, out)
@@ -451,5 +460,27 @@ func TestReportTableWidthWithEngines(t *testing.T) {
 				t.Errorf("%v: table line wider than 80 columns: %q", extra, line)
 			}
 		}
+	}
+}
+
+func TestWrapWords(t *testing.T) {
+	cases := []struct {
+		name  string
+		in    string
+		width int
+		want  []string
+	}{
+		{"fits", "a short line", 20, []string{"a short line"}},
+		{"breaks at a space, indents the rest", "one two three four", 9, []string{"one two", "  three", "  four"}},
+		{"a long word stands alone", "x averyveryverylongword y", 8, []string{"x", "  averyveryverylongword", "  y"}},
+		{"empty", "", 10, []string{""}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			got := wrapWords(c.in, c.width, 2)
+			if strings.Join(got, "|") != strings.Join(c.want, "|") {
+				t.Fatalf("got %q, want %q", got, c.want)
+			}
+		})
 	}
 }

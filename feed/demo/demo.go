@@ -14,7 +14,7 @@ import (
 	"dragdeck/model"
 )
 
-// The demo fleet is an invented airline flying the invented demo type. Its
+// The demo fleet is an invented airline flying invented types. Its
 // snapshots are made through the model's own equations from a known truth:
 // a per-tail drag deviation that may drift, step, drop after a repair or sit
 // high, plus measurement noise, so that every later analysis can be checked
@@ -34,10 +34,12 @@ type Config struct {
 	Days  int       // days of data (default 730)
 	Seed  uint64    // random seed (default 1)
 	Start time.Time // first day, UTC midnight (default: Days before DefaultEnd)
-	// Type is the aircraft type flown (default: the demo type). Weights
-	// scale with its wing area and buffet limit, speeds with its
-	// maximum-range Mach.
-	Type *model.Type
+	// Type is the one aircraft type flown by every tail. Weights scale
+	// with its wing area and buffet limit, speeds with its maximum-range
+	// Mach. Groups splits the fleet among several types instead. With
+	// neither, the fleet is the built-in mixed fleet (MixedGroups).
+	Type   *model.Type
+	Groups []Group
 	// Effects are the sensor effects on the recorded data (nil: the
 	// defaults, DefaultEffects); Clean leaves them all out.
 	Effects *Effects
@@ -56,9 +58,6 @@ func (c Config) withDefaults() Config {
 	}
 	if c.Start.IsZero() {
 		c.Start = DefaultEnd.AddDate(0, 0, -c.Days)
-	}
-	if c.Type == nil {
-		c.Type = feed.DemoType()
 	}
 	if c.Effects == nil {
 		e := DefaultEffects()
@@ -90,23 +89,26 @@ const (
 
 // Truth is what the generator put into the demo fleet (truth.json).
 type Truth struct {
-	Generator      string      `json:"generator"`
-	Airline        string      `json:"airline"`
-	Type           string      `json:"type"`
-	Seed           uint64      `json:"seed"`
-	Days           int         `json:"days"`
-	Start          string      `json:"start"`
-	End            string      `json:"end"`
-	SnapshotFile   string      `json:"snapshot_file"`
-	Rows           int         `json:"rows"`
-	Accepted       int         `json:"accepted"`
-	Rejected       int         `json:"rejected"`
-	Thresholds     truthLimits `json:"thresholds"`
-	FleetMedianPct float64     `json:"fleet_recent_level_median_pct"`
-	// ReferenceCD is the baseline CD at the reference cruise; a deviation
-	// d % of the truth is an excess ΔCD = d/100 × ReferenceCD at every
-	// condition (lift-independent).
-	ReferenceCD float64 `json:"reference_cd_baseline"`
+	Generator    string      `json:"generator"`
+	Airline      string      `json:"airline"`
+	Types        []TypeTruth `json:"types"`
+	Seed         uint64      `json:"seed"`
+	Days         int         `json:"days"`
+	Start        string      `json:"start"`
+	End          string      `json:"end"`
+	SnapshotFile string      `json:"snapshot_file"`
+	Rows         int         `json:"rows"`
+	Accepted     int         `json:"accepted"`
+	Rejected     int         `json:"rejected"`
+	Thresholds   truthLimits `json:"thresholds"`
+	// FleetMedianPct is the median recent level of all tails; each tail's
+	// level flag compares it with its own type's (Types).
+	FleetMedianPct float64 `json:"fleet_recent_level_median_pct"`
+	// ReferenceCD is the baseline CD at the reference cruise of each type
+	// (by the fleet file's name); a deviation d % of the truth is an excess
+	// ΔCD = d/100 × ReferenceCD of the type in force at every condition
+	// (lift-independent).
+	ReferenceCD map[string]float64 `json:"reference_cd_baseline"`
 	// Effects are the sensor effects put on the recorded snapshots.
 	Effects    Effects      `json:"sensor_effects"`
 	Tails      []TailTruth  `json:"tails"`
@@ -124,15 +126,19 @@ type truthLimits struct {
 
 // TailTruth is one tail's injected drag deviation.
 type TailTruth struct {
-	Tail            string      `json:"tail"`
-	Role            string      `json:"role"`
-	OffsetPct       float64     `json:"offset_pct"`
-	DriftPctPer100d float64     `json:"drift_pct_per_100d"`
-	DriftStart      string      `json:"drift_start,omitempty"`
-	Steps           []StepTruth `json:"steps"`
-	Manoeuvres      bool        `json:"manoeuvres"`
-	RecentLevelPct  float64     `json:"recent_level_pct"`
-	ExpectedFlags   []string    `json:"expected_flags"`
+	Tail string `json:"tail"`
+	// Type is the fleet file's name of the type flown from the start;
+	// Retrofit, when set, the type flown from its date on.
+	Type            string         `json:"type"`
+	Retrofit        *RetrofitTruth `json:"retrofit"`
+	Role            string         `json:"role"`
+	OffsetPct       float64        `json:"offset_pct"`
+	DriftPctPer100d float64        `json:"drift_pct_per_100d"`
+	DriftStart      string         `json:"drift_start,omitempty"`
+	Steps           []StepTruth    `json:"steps"`
+	Manoeuvres      bool           `json:"manoeuvres"`
+	RecentLevelPct  float64        `json:"recent_level_pct"`
+	ExpectedFlags   []string       `json:"expected_flags"`
 	// FanSpeed says that the tail's recorder gives n1_pct (the type has a
 	// thrust table); Engine is then what was planted in its engines and
 	// fuel-flow meter, and the deviation above is the airframe's alone.
@@ -140,6 +146,7 @@ type TailTruth struct {
 	Engine   *EngineTruth `json:"engine"`
 
 	driftStart time.Time
+	ctx        *typeCtx // the type flown from the start
 }
 
 // StepTruth is a sudden change of a tail's drag deviation.
@@ -183,44 +190,21 @@ func (tt *TailTruth) deviation(t time.Time) float64 {
 // demoGen holds the state of one generation.
 type demoGen struct {
 	cfg   Config
-	ty    *model.Type
+	types []*typeCtx // one per group, in the config's order
 	rng   *rand.Rand
 	tails []TailTruth
 	end   time.Time
-	wMid  float64 // a mid cruise weight of the type, kg
-	// optimum altitude (m) by weight in steps of 2 % of wMid, for levels
-	optAlt         map[int]float64
-	machLo, machHi float64 // cruise Mach range flown
-	// refCD is the baseline drag coefficient at the reference cruise (mid
-	// weight, its optimum altitude, mid Mach, ISA): a tail's deviation d %
-	// is the lift-independent excess ΔCD = d/100 · refCD, so that the
-	// deviation measured at another condition is ΔCD over that condition's
-	// baseline, as the analysis takes it.
-	refCD float64
+	// typeMedians are the medians of the planted recent levels by the
+	// type each tail flies at the end, airframe and engine.
+	typeMedians, engineMedians map[string]float64
 }
-
-// wingLoading is the demo's mid cruise weight per wing area at a buffet
-// CL of 0.85, kg/m² (65 t on 112 m²).
-const wingLoading = 580.0
 
 func newDemoGen(cfg Config) *demoGen {
 	cfg = cfg.withDefaults()
-	g := &demoGen{cfg: cfg, ty: cfg.Type, rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
-		end: cfg.Start.AddDate(0, 0, cfg.Days), optAlt: map[int]float64{}}
-	g.wMid = wingLoading * g.ty.WingArea * g.ty.CLBuffet / 0.85
-	for k := 35; k <= 65; k++ {
-		w := g.wMid * float64(k) / 50
-		maxAlt, _ := model.MaxAltitude(g.ty, w, 0, 0)
-		g.optAlt[k], _ = model.OptimumAltitude(g.ty, w, 0, 0, maxAlt)
-	}
-	mr := model.MaxRangeMach(g.ty, g.wMid, model.AirISA(g.optAlt[50], 0), 0).Mach
-	g.machHi = math.Min(mr+0.022, g.ty.MMO-0.005)
-	g.machLo = g.machHi - 0.03
-	{
-		air := model.AirISA(g.optAlt[50], 0)
-		mRef := (g.machLo + g.machHi) / 2
-		cl := model.LiftCoefficient(1, g.wMid, air.DynamicPressure(mRef), g.ty.WingArea)
-		g.refCD = g.ty.CD(cl, mRef, 0)
+	g := &demoGen{cfg: cfg, rng: rand.New(rand.NewPCG(cfg.Seed, 0x6472616764656b)),
+		end: cfg.Start.AddDate(0, 0, cfg.Days)}
+	for _, gr := range cfg.groups() {
+		g.types = append(g.types, newTypeCtx(gr))
 	}
 	g.assignRoles()
 	g.assignEngines()
@@ -232,6 +216,26 @@ func (g *demoGen) uniform(lo, hi float64) float64 { return lo + (hi-lo)*g.rng.Fl
 func (g *demoGen) day(frac float64) time.Time {
 	d := int(math.Round(frac * float64(g.cfg.Days)))
 	return g.cfg.Start.AddDate(0, 0, max(1, min(d, g.cfg.Days-1)))
+}
+
+// anyThrust reports whether some type of the fleet has a thrust table (the
+// snapshot file then has an n1_pct column).
+func (g *demoGen) anyThrust() bool {
+	for _, c := range g.types {
+		if c.ty.Thrust != nil {
+			return true
+		}
+	}
+	return false
+}
+
+// typeNames is the fleet's types as the truth and the header name them.
+func (g *demoGen) typeNames() string {
+	var names []string
+	for _, c := range g.types {
+		names = append(names, c.ty.Name)
+	}
+	return strings.Join(names, ", ")
 }
 
 func (g *demoGen) assignRoles() {
@@ -254,9 +258,18 @@ func (g *demoGen) assignRoles() {
 	causes := []string{"damaged door seal", "misrigged spoiler panel", "flap track fairing damage", "missing access panel seal"}
 	recentAt := g.end.AddDate(0, 0, -15) // middle of the last 30 days
 	g.tails = make([]TailTruth, n)
+	i := 0
+	for k, c := range split(n, g.cfg.groups()) {
+		for range c {
+			tt := &g.tails[i]
+			tt.ctx = g.types[k]
+			tt.Type = tt.ctx.group.Name
+			tt.Tail = fmt.Sprintf("%s%03d", tt.ctx.group.Prefix, 101+i)
+			i++
+		}
+	}
 	for i := range g.tails {
 		tt := &g.tails[i]
-		tt.Tail = fmt.Sprintf("DD%03d", 101+i)
 		tt.Role = roles[i]
 		tt.Steps = []StepTruth{}
 		switch tt.Role {
@@ -289,38 +302,96 @@ func (g *demoGen) assignRoles() {
 		}
 		tt.RecentLevelPct = tt.deviation(recentAt)
 	}
+	g.assignRetrofits()
 	// Expected flags by the rules of DESIGN.md §4.9, with levels kept away
 	// from the threshold so that the truth is unambiguous.
-	median := g.fleetMedian()
+	items := make([]levelItem, len(g.tails))
 	for i := range g.tails {
 		tt := &g.tails[i]
-		limit := median + truthLevelPP
-		if d := tt.RecentLevelPct - limit; math.Abs(d) < truthMargin {
-			shift := -truthMargin - d // move below the limit by the margin
-			if tt.Role == RoleHigh {
-				shift = truthMargin - d
-			}
-			tt.OffsetPct += shift
-			tt.RecentLevelPct += shift
-		}
+		items[i] = levelItem{group: tt.finalType(), offset: &tt.OffsetPct, recent: &tt.RecentLevelPct, high: tt.Role == RoleHigh}
+	}
+	g.typeMedians = keepFromLimit(items)
+	for i := range g.tails {
+		tt := &g.tails[i]
 		tt.ExpectedFlags = []string{}
-		if tt.RecentLevelPct >= limit {
-			tt.ExpectedFlags = append(tt.ExpectedFlags, "level")
+		if tt.RecentLevelPct >= g.typeMedians[tt.finalType()]+truthLevelPP {
+			tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagLevel)
 		}
 		if tt.DriftPctPer100d*1.8 >= truthGrowthPP {
-			tt.ExpectedFlags = append(tt.ExpectedFlags, "growth")
+			tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagGrowth)
 		}
 		for _, s := range tt.Steps {
 			if s.SizePct >= truthStepPP {
-				tt.ExpectedFlags = append(tt.ExpectedFlags, "step")
+				tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagStep)
 				break
 			}
 		}
 	}
 }
 
-// fleetMedian returns the median recent level of the truth, by the same
-// definition the fleet assessment uses (model.Median).
+// assignRetrofits moves one steady tail of each group named by another's
+// RetrofitFrom to that other group's type half-way through the period.
+func (g *demoGen) assignRetrofits() {
+	at := g.cfg.Start.AddDate(0, 0, g.cfg.Days/2)
+	for _, to := range g.types {
+		if to.group.RetrofitFrom == "" || g.cfg.Days < 4 {
+			continue
+		}
+		for i := range g.tails {
+			tt := &g.tails[i]
+			if tt.Type == to.group.RetrofitFrom && tt.Role == RoleSteady && tt.Retrofit == nil {
+				tt.Retrofit = &RetrofitTruth{Date: at.Format(time.DateOnly), Type: to.group.Name, at: at, ctx: to}
+				break
+			}
+		}
+	}
+}
+
+// levelItem is one planted recent level in its group (the type flown at
+// the end), with the offset that moves the whole series.
+type levelItem struct {
+	group          string
+	offset, recent *float64
+	high           bool // a tail planted high: kept above its limit
+}
+
+// keepFromLimit keeps every planted recent level at least truthMargin away
+// from its group's level limit (the group's median + truthLevelPP), moving
+// a tail's offset (above the limit for a tail planted high, below for the
+// others), until the medians settle; it returns the medians by group.
+func keepFromLimit(items []levelItem) map[string]float64 {
+	medians := map[string]float64{}
+	for range 5 {
+		byGroup := map[string][]float64{}
+		for _, it := range items {
+			byGroup[it.group] = append(byGroup[it.group], *it.recent)
+		}
+		for name, l := range byGroup {
+			medians[name] = model.Median(l)
+		}
+		moved := false
+		for _, it := range items {
+			d := *it.recent - (medians[it.group] + truthLevelPP)
+			if math.Abs(d) >= truthMargin {
+				continue
+			}
+			shift := -truthMargin - d // move below the limit by the margin
+			if it.high {
+				shift = truthMargin - d
+			}
+			*it.offset += shift
+			*it.recent += shift
+			moved = true
+		}
+		if !moved {
+			break
+		}
+	}
+	return medians
+}
+
+// fleetMedian returns the median recent level of all the tails (the
+// median of each type is the reference of its level flags).
 func (g *demoGen) fleetMedian() float64 {
 	levels := make([]float64, len(g.tails))
 	for i := range g.tails {
@@ -348,27 +419,20 @@ func (g *demoGen) snapshot(tt *TailTruth, t time.Time, flight string, w, altFt, 
 	air := model.AirISA(h, dev)
 	q := air.DynamicPressure(m)
 	n := model.LoadFactor(bankDeg * math.Pi / 180)
-	cl := model.LiftCoefficient(n, w, q, g.ty.WingArea)
-	cd := g.ty.CD(cl, m, tt.deviation(t)/100*g.refCD) // excess lift-independent, as the analysis takes it
+	c := tt.ctxAt(t)
+	cl := model.LiftCoefficient(n, w, q, c.ty.WingArea)
+	cd := c.ty.CD(cl, m, tt.deviation(t)/100*c.refCD) // excess lift-independent, as the analysis takes it
 	tas := air.TAS(m)
-	thrust := cd*q*g.ty.WingArea + w*model.G0*feed.MPerSFromFtPerMin(vsFpm)/tas + w*feed.MPerS2FromKtPerMin(acc)
+	thrust := cd*q*c.ty.WingArea + w*model.G0*feed.MPerSFromFtPerMin(vsFpm)/tas + w*feed.MPerS2FromKtPerMin(acc)
 	// The engines burn the model's fuel for this thrust times their
 	// planted deviation (wear, a meter reading high), with noise.
-	ff := g.ty.TSFC(m, air.Theta()) * thrust * (1 + tt.Engine.deviation(t)/100) * (1 + noise)
+	ff := c.ty.TSFC(m, air.Theta()) * thrust * (1 + tt.Engine.deviation(t)/100) * (1 + noise)
 	n1 := 0.0
 	if tt.FanSpeed {
-		n1 = g.fanSpeed(thrust, m, air.Delta(), air.Theta())
+		n1 = fanSpeed(c.ty, thrust, m, air.Delta(), air.Theta())
 	}
 	return demoRow{t: t, tail: tt.Tail, flight: flight, w: w, altFt: altFt, mach: m,
 		satC: tISA + dev - model.CelsiusZero, ffKgph: ff * model.Hour, bankDeg: bankDeg, vsFpm: vsFpm, accelKtPerMin: acc, n1: n1}
-}
-
-// cruiseLevel returns the flight level (ft, odd thousands) at or below the
-// optimum altitude for weight w.
-func (g *demoGen) cruiseLevel(w float64) float64 {
-	opt := g.optAlt[max(35, min(65, int(math.Round(50*w/g.wMid))))] / model.Foot
-	fl := math.Floor((opt-1000)/2000)*2000 + 1000
-	return max(29000, fl)
 }
 
 // isaDev is the seasonal ISA deviation (K) on day t, with weather noise.
@@ -397,9 +461,10 @@ func (g *demoGen) days(fn func([]demoRow)) {
 			dep := day.Add(time.Duration(5*60+g.rng.IntN(180)) * time.Minute)
 			for k := 0; k < flights; k++ {
 				flight := fmt.Sprintf("DDF%04d", 100+(i*37+k*11)%900)
-				w := g.wMid * g.uniform(0.924, 1.17)
-				alt := g.cruiseLevel(w)
-				m := math.Round(g.uniform(g.machLo, g.machHi)*1000) / 1000
+				c := tt.ctxAt(dep)
+				w := c.wMid * g.uniform(0.924, 1.17)
+				alt := c.cruiseLevel(w)
+				m := math.Round(g.uniform(c.machLo, c.machHi)*1000) / 1000
 				fx := g.cfg.Effects
 				bias := g.rng.NormFloat64() * fx.FuelFlowScatterPct / 100 // per-flight fuel-flow error
 				fdev := dev + g.rng.NormFloat64()*1.5
@@ -444,7 +509,7 @@ const snapshotHeader = "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_k
 // header is the column layout for the type: with n1_pct when it has a
 // thrust table (left empty on the tails without fan speed).
 func (g *demoGen) header() string {
-	if g.ty.Thrust != nil {
+	if g.anyThrust() {
 		return strings.TrimSuffix(snapshotHeader, "\n") + ",n1_pct\n"
 	}
 	return snapshotHeader
@@ -452,7 +517,7 @@ func (g *demoGen) header() string {
 
 func (g *demoGen) appendRow(b []byte, r demoRow) []byte {
 	b = appendRow(b, r)
-	if g.ty.Thrust == nil {
+	if !g.anyThrust() {
 		return b
 	}
 	b = append(b[:len(b)-1], ',')

@@ -81,8 +81,8 @@ func TestDemoTruthMatchesFile(t *testing.T) {
 			t.Errorf("reject %v, truth says line %d column %s (%s)", r, b.Line, b.Column, b.Defect)
 		}
 	}
-	if _, err := feed.LoadType(filepath.Join(dir, TypeFile)); err != nil {
-		t.Errorf("type file: %v", err)
+	if _, err := feed.LoadFleet(filepath.Join(dir, FleetFile)); err != nil {
+		t.Errorf("fleet file: %v", err)
 	}
 	ev, _ := os.ReadFile(filepath.Join(dir, EventsFile))
 	if !bytes.Contains(ev, []byte(",repair,")) {
@@ -102,13 +102,16 @@ func TestDemoRecoversTruth(t *testing.T) {
 	if d.Stats.Rejected != d.Truth.Rejected || len(d.Records) != d.Truth.Accepted {
 		t.Fatalf("in-memory fleet: %+v vs truth %d/%d", d.Stats, d.Truth.Accepted, d.Truth.Rejected)
 	}
-	ty := feed.DemoType()
 	end, _ := time.Parse(time.DateOnly, d.Truth.End)
 	recent := map[string][]float64{}
 	manoeuvring := 0
 	for _, r := range d.Records {
 		if r.Time.After(end.AddDate(0, 0, -30)) {
-			recent[r.Tail] = append(recent[r.Tail], model.Analyze(ty, r.Snap).DragDevPct)
+			p, _, _, why := d.Roster.Analyze(r.Tail, r.Time, r.Snap)
+			if why != "" {
+				t.Fatalf("%s at %v: %s", r.Tail, r.Time, why)
+			}
+			recent[r.Tail] = append(recent[r.Tail], p.DragDevPct)
 		}
 		if r.Snap.Bank != 0 || r.Snap.VS != 0 || r.Snap.Accel != 0 {
 			manoeuvring++
@@ -147,12 +150,15 @@ func TestDemoTraces(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	ty := feed.DemoType()
+	roster, err := feed.LoadFleet(filepath.Join(dir, FleetFile))
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, tr := range truth.Traces {
 		var devs []float64
 		climbing, turning := false, false
 		res := feed.ReadFile(filepath.Join(dir, tr.File), func(r feed.Record) {
-			p := model.Analyze(ty, r.Snap)
+			p, _, _, _ := roster.Analyze(r.Tail, r.Time, r.Snap)
 			devs = append(devs, p.CDMeasured-p.CDBaseline)
 			climbing = climbing || r.Snap.VS > 0
 			turning = turning || r.Snap.Bank != 0
@@ -168,13 +174,14 @@ func TestDemoTraces(t *testing.T) {
 		// ΔCD = level/100 × the reference baseline CD (noise and rounding
 		// aside; 0.6 % of the reference is about 2 counts).
 		med := model.Median(devs)
-		var want float64
+		var want, ref float64
 		for _, tt := range truth.Tails {
 			if tt.Tail == tr.Tail {
-				want = tt.RecentLevelPct / 100 * truth.ReferenceCD
+				ref = truth.ReferenceCD[tt.finalType()]
+				want = tt.RecentLevelPct / 100 * ref
 			}
 		}
-		if d := med - want; math.Abs(d) > 0.006*truth.ReferenceCD {
+		if d := med - want; math.Abs(d) > 0.006*ref || ref == 0 {
 			t.Errorf("%s: median excess %.1f counts, tail truth about %.1f counts", tr.File, med/model.DragCount, want/model.DragCount)
 		}
 	}

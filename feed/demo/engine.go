@@ -11,9 +11,10 @@ import (
 // Engine roles of the demo tails that record fan speed.
 const (
 	EngineSteady    = "steady"
-	EngineWear      = "wear"       // fuel burnt for the thrust grows between shop visits
-	EngineMeterBias = "meter bias" // the fuel-flow meter reads high
-	EngineShopVisit = "shop visit" // a worn engine restored at a shop visit
+	EngineWear      = "wear"          // fuel burnt for the thrust grows between shop visits
+	EngineMeterBias = "meter bias"    // the fuel-flow meter reads high
+	EngineShopVisit = "shop visit"    // a worn engine restored at a shop visit
+	EngineChange    = "engine change" // an engine swapped for a more worn spare
 )
 
 // fanSpeedShare is the share of tails with fan speed on their recorders
@@ -58,29 +59,35 @@ func (e *EngineTruth) deviation(t time.Time) float64 {
 	return planted(e.OffsetPct, e.DriftPctPer100d, e.driftStart, e.Steps, t)
 }
 
-// assignEngines gives fan speed to most tails when the type has a thrust
-// table, and plants engine wear, a meter bias and a shop visit on tails
-// whose airframe is steady, so that engine and airframe can be told apart.
-// It draws from its own generator, so the airframe's planting is the same
-// with or without a thrust table.
+// assignEngines gives fan speed to most tails whose types have a thrust
+// table, and plants engine wear, a meter bias, a shop visit and an engine
+// change on tails whose airframe is steady, so that engine and airframe can
+// be told apart. It draws from its own generator, so the airframe's
+// planting is the same with or without thrust tables.
 func (g *demoGen) assignEngines() {
-	if g.ty.Thrust == nil {
+	var able []int
+	for i := range g.tails {
+		if g.tails[i].hasThrust() {
+			able = append(able, i)
+		}
+	}
+	if len(able) == 0 {
 		return
 	}
 	rng := rand.New(rand.NewPCG(g.cfg.Seed, 0x656e67696e65))
 	uniform := func(lo, hi float64) float64 { return lo + (hi-lo)*rng.Float64() }
 	n := len(g.tails)
-	want := map[string]int{EngineWear: max(1, int(math.Round(0.06*float64(n)))), EngineMeterBias: max(1, int(math.Round(0.06*float64(n)))),
-		EngineShopVisit: max(1, int(math.Round(0.04*float64(n))))}
-	order := []string{EngineWear, EngineMeterBias, EngineShopVisit}
+	share := func(f float64) int { return max(1, int(math.Round(f*float64(n)))) }
+	want := map[string]int{EngineWear: share(0.06), EngineMeterBias: share(0.06), EngineShopVisit: share(0.04), EngineChange: share(0.04)}
+	order := []string{EngineWear, EngineMeterBias, EngineShopVisit, EngineChange}
 	recentAt := g.end.AddDate(0, 0, -15)
-	var levels []float64
-	withN1 := int(math.Round(fanSpeedShare * float64(n)))
-	if n > 1 {
-		withN1 = min(withN1, n-1) // at least one older recorder
+	withN1 := int(math.Round(fanSpeedShare * float64(len(able))))
+	if len(able) > 1 {
+		withN1 = min(withN1, len(able)-1) // at least one older recorder
 	}
-	for k, i := range rng.Perm(n) {
-		tt := &g.tails[i]
+	var items []levelItem
+	for k, j := range rng.Perm(len(able)) {
+		tt := &g.tails[able[j]]
 		if k >= withN1 {
 			continue // an older recorder: no fan speed
 		}
@@ -109,34 +116,46 @@ func (g *demoGen) assignEngines() {
 		case EngineShopVisit:
 			e.OffsetPct = uniform(3.5, 4.5)
 			at := g.day(uniform(0.35, 0.7))
-			e.Steps = append(e.Steps, StepTruth{at: at, Date: at.Format(time.DateOnly), SizePct: -e.OffsetPct + uniform(-0.3, 0.3), Cause: "shop visit"})
+			e.Steps = append(e.Steps, StepTruth{at: at, Date: at.Format(time.DateOnly), SizePct: -e.OffsetPct + uniform(-0.3, 0.3), Cause: EngineShopVisit})
+		case EngineChange:
+			// One engine swapped for a more worn spare: the pair burns more.
+			e.OffsetPct = uniform(-0.6, 0)
+			at := g.day(uniform(0.35, 0.7))
+			e.Steps = append(e.Steps, StepTruth{at: at, Date: at.Format(time.DateOnly), SizePct: uniform(1.5, 2.0), Cause: EngineChange})
 		}
 		e.RecentLevelPct = e.deviation(recentAt)
-		levels = append(levels, e.RecentLevelPct)
 		tt.Engine = e
+		items = append(items, levelItem{group: tt.finalType(), offset: &e.OffsetPct, recent: &e.RecentLevelPct, high: e.Role == EngineMeterBias})
 	}
-	median := model.Median(levels)
+	g.engineMedians = keepFromLimit(items)
 	for i := range g.tails {
-		e := g.tails[i].Engine
+		tt := &g.tails[i]
+		e := tt.Engine
 		if e == nil {
 			continue
 		}
 		e.ExpectedFlags = []string{}
-		if e.RecentLevelPct >= median+truthLevelPP {
+		if e.RecentLevelPct >= g.engineMedians[tt.finalType()]+truthLevelPP {
 			e.ExpectedFlags = append(e.ExpectedFlags, model.FlagLevel)
 		}
 		if e.DriftPctPer100d*1.8 >= truthGrowthPP {
 			e.ExpectedFlags = append(e.ExpectedFlags, model.FlagGrowth)
 		}
+		for _, s := range e.Steps {
+			if s.SizePct >= truthStepPP {
+				e.ExpectedFlags = append(e.ExpectedFlags, model.FlagStep)
+				break
+			}
+		}
 	}
 }
 
-// fanSpeed is the N1 (%) that gives the thrust fn (N, all engines) at Mach
-// m, δ and θ, by bisection on the type's table (which rises with N1, so the
+// fanSpeed is the N1 (%) that gives the thrust fn (N, all engines) of type
+// ty at Mach m, δ and θ, by bisection on the type's table (which rises with N1, so the
 // root is unique); 0 when the thrust lies outside the table.
-func (g *demoGen) fanSpeed(fn, m, delta, theta float64) float64 {
-	tab := g.ty.Thrust
-	want := fn / (float64(g.ty.EngineCount) * delta)
+func fanSpeed(ty *model.Type, fn, m, delta, theta float64) float64 {
+	tab := ty.Thrust
+	want := fn / (float64(ty.EngineCount) * delta)
 	lo, hi := tab.N1[0], tab.N1[len(tab.N1)-1]
 	fLo, okLo := tab.At(lo, m)
 	fHi, okHi := tab.At(hi, m)

@@ -10,7 +10,6 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
-	"strings"
 	"time"
 
 	"dragdeck/feed"
@@ -20,7 +19,7 @@ import (
 // Names of the files Write writes inside its folder.
 const (
 	SnapshotFile = "snapshots/fleet.csv"
-	TypeFile     = "type.toml"
+	TypeDir      = "types" // one type file per type, named as in the fleet file
 	FleetFile    = "fleet.toml"
 	EventsFile   = "events.csv"
 	TruthFile    = "truth.json"
@@ -31,7 +30,7 @@ const (
 // inserted among the good ones, and fills in the truth's counts.
 func (g *demoGen) writeSnapshots(w io.Writer, truth *Truth) error {
 	bw := bufio.NewWriterSize(w, 256<<10)
-	fmt.Fprintf(bw, "# dragdeck demo fleet of %s, type %s\n", Airline, g.ty.Name)
+	fmt.Fprintf(bw, "# dragdeck demo fleet of %s: %s\n", Airline, g.typeNames())
 	fmt.Fprintf(bw, "# invented data made by 'dragdeck demo' (seed %d); not flight data of any real aircraft\n", g.cfg.Seed)
 	bw.WriteString(g.header())
 	line := 3
@@ -73,8 +72,11 @@ func (g *demoGen) events() []Event {
 		}
 		if e := tt.Engine; e != nil {
 			for _, s := range e.Steps {
-				ev = append(ev, Event{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail,
-					Kind: "shop visit", Note: "both engines, performance restoration"})
+				note := "both engines, performance restoration"
+				if s.Cause == EngineChange {
+					note = "engine 2 replaced by a spare"
+				}
+				ev = append(ev, Event{Time: s.at.Add(-6 * time.Hour).Format(time.RFC3339), Tail: tt.Tail, Kind: s.Cause, Note: note})
 			}
 		}
 		if tt.Role == RoleSteady && i%4 == 0 {
@@ -86,14 +88,28 @@ func (g *demoGen) events() []Event {
 	return ev
 }
 
-// fleetFile is the fleet file (DESIGN.md §3.4) of the demo: every tail on
-// the one type, named by the first word of the type's name.
+// fleetFile is the fleet file (DESIGN.md §3.4) of the demo: each tail's
+// type, a retrofit's new type from its date on, a group's cruise hours.
 func (g *demoGen) fleetFile() []byte {
-	name := strings.Fields(g.ty.Name + " type")[0]
 	var b bytes.Buffer
-	fmt.Fprintf(&b, "# fleet file of the invented demo fleet: the type of each tail\nname = %q\n\n[types]\n%q = %q\n", Airline, name, TypeFile)
+	fmt.Fprintf(&b, "# fleet file of the invented demo fleet: the type of each tail\nname = %q\n\n[types]\n", Airline)
+	for _, c := range g.types {
+		fmt.Fprintf(&b, "%q = %q\n", c.group.Name, TypeFilePath(c.group.Name))
+	}
+	entry := func(tail, typ string, since time.Time, hours float64) {
+		fmt.Fprintf(&b, "\n[[tail]]\nid = %q\ntype = %q\n", tail, typ)
+		if !since.IsZero() {
+			fmt.Fprintf(&b, "since = %s\n", since.Format(time.RFC3339))
+		}
+		if hours > 0 {
+			fmt.Fprintf(&b, "cruise_hours_per_year = %g\n", hours)
+		}
+	}
 	for _, tt := range g.tails {
-		fmt.Fprintf(&b, "\n[[tail]]\nid = %q\ntype = %q\n", tt.Tail, name)
+		entry(tt.Tail, tt.Type, time.Time{}, tt.ctx.group.CruiseHours)
+		if r := tt.Retrofit; r != nil {
+			entry(tt.Tail, r.Type, r.at, r.ctx.group.CruiseHours)
+		}
 	}
 	return b.Bytes()
 }
@@ -111,10 +127,11 @@ func writeEvents(w io.Writer, ev []Event) error {
 // at dep: climb from FL100 to cruise, a step climb, two turns, until top of
 // descent.
 func (g *demoGen) trace(tt *TailTruth, flight string, dep time.Time) []demoRow {
-	w := 1.11 * g.wMid
-	cruise := g.cruiseLevel(w) - 2000
+	c := tt.ctxAt(dep)
+	w := 1.11 * c.wMid
+	cruise := c.cruiseLevel(w) - 2000
 	dev := g.isaDev(dep)
-	cruiseMach := math.Round((g.machLo+0.015)*1000) / 1000
+	cruiseMach := math.Round((c.machLo+0.015)*1000) / 1000
 	alt, m := 10000.0, 0.60
 	var rows []demoRow
 	t := dep.Add(8 * time.Minute)
@@ -168,7 +185,7 @@ func (g *demoGen) newTruth() Truth {
 	return Truth{
 		Generator:      "dragdeck demo",
 		Airline:        Airline,
-		Type:           g.ty.Name,
+		Types:          g.typeTruths(),
 		Seed:           g.cfg.Seed,
 		Days:           g.cfg.Days,
 		Start:          g.cfg.Start.Format(time.DateOnly),
@@ -176,7 +193,7 @@ func (g *demoGen) newTruth() Truth {
 		SnapshotFile:   SnapshotFile,
 		Thresholds:     truthLimits{LevelPP: truthLevelPP, GrowthPPin180: truthGrowthPP, StepPP: truthStepPP},
 		FleetMedianPct: g.fleetMedian(),
-		ReferenceCD:    g.refCD,
+		ReferenceCD:    g.referenceCDs(),
 		Effects:        *g.cfg.Effects,
 		Tails:          g.tails,
 		BrokenRows:     []BrokenRow{},
@@ -193,7 +210,7 @@ func (g *demoGen) newTruth() Truth {
 func Write(dir string, cfg Config) (Truth, error) {
 	g := newDemoGen(cfg)
 	truth := g.newTruth()
-	for _, sub := range []string{TraceDir, filepath.Dir(SnapshotFile)} {
+	for _, sub := range []string{TraceDir, TypeDir, filepath.Dir(SnapshotFile)} {
 		if err := os.MkdirAll(filepath.Join(dir, sub), 0o755); err != nil {
 			return truth, err
 		}
@@ -209,8 +226,10 @@ func Write(dir string, cfg Config) (Truth, error) {
 	if err := f.Close(); err != nil {
 		return truth, err
 	}
-	if err := os.WriteFile(filepath.Join(dir, TypeFile), feed.FormatType(g.ty), 0o644); err != nil {
-		return truth, err
+	for _, c := range g.types {
+		if err := os.WriteFile(filepath.Join(dir, TypeFilePath(c.group.Name)), feed.FormatType(c.ty), 0o644); err != nil {
+			return truth, err
+		}
 	}
 	if err := os.WriteFile(filepath.Join(dir, FleetFile), g.fleetFile(), 0o644); err != nil {
 		return truth, err
@@ -260,7 +279,8 @@ func (g *demoGen) traceTails() []traceChoice {
 
 // Fleet is the demo fleet in memory, as the dashboard shows it.
 type Fleet struct {
-	Type    *model.Type // the type flown
+	Roster  *model.Roster // the fleet file: each tail's type
+	Type    *model.Type   // the one type flown; nil when the fleet has several
 	Records []feed.Record
 	Rejects []*feed.RowError
 	Stats   feed.Stats
@@ -285,7 +305,14 @@ func (d *Fleet) Events() map[string][]model.Event {
 // the same too.
 func NewFleet(cfg Config) (*Fleet, error) {
 	g := newDemoGen(cfg)
-	d := &Fleet{Type: g.ty, Truth: g.newTruth()}
+	roster, err := g.roster()
+	if err != nil {
+		return nil, err
+	}
+	d := &Fleet{Roster: roster, Truth: g.newTruth()}
+	if len(g.types) == 1 {
+		d.Type = g.types[0].ty
+	}
 	var buf bytes.Buffer
 	if err := g.writeSnapshots(&buf, &d.Truth); err != nil {
 		return nil, err

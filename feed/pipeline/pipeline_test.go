@@ -80,9 +80,11 @@ func TestFromRecordsMatchesRun(t *testing.T) {
 		t.Fatal(err)
 	}
 	in := input()
-	in.KeepRecords = true
+	in.KeepRecords, in.Roster = true, d.Roster
 	mem := FromRecords(d.Records, d.Stats, in)
-	file := Run(input(filepath.Join(dir, demo.SnapshotFile)))
+	fin := input(filepath.Join(dir, demo.SnapshotFile))
+	fin.Roster = d.Roster
+	file := Run(fin)
 	for i, a := range mem.Fleet.Tails {
 		b := file.Fleet.Tails[i]
 		if a.Tail != b.Tail || a.RecentPct != b.RecentPct || a.Points != b.Points {
