@@ -213,6 +213,16 @@ func (s *tailScreen) deviationChart(w, h int) string {
 		med = append(med, [2]float64{x(f.Time), f.RollingPct})
 		ys = append(ys, f.DevPct)
 	}
+	// The engine series' rolling median shares the axis, so the range
+	// holds it too (a meter reading 4 % high sits above the airframe's).
+	e, hasEngine := s.data.EngineTail(a.Tail)
+	var em [][2]float64
+	for _, f := range e.Flights {
+		if hasEngine && !f.Time.Before(start) && !f.Time.After(end) && !math.IsNaN(f.RollingPct) {
+			em = append(em, [2]float64{x(f.Time), f.RollingPct})
+			ys = append(ys, f.RollingPct)
+		}
+	}
 	lo, hi := span(ys, 0.05, 0.5)
 	spec := chartSpec{w: w, h: h - 1, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
 		xTicks: dateTicks(start, end, max(1, w/8), x),
@@ -237,13 +247,7 @@ func (s *tailScreen) deviationChart(w, h int) string {
 		spec.marks = append(spec.marks, vmark{x: x(e.Time), style: s.st.Event})
 	}
 	engine := ""
-	if e, ok := s.data.EngineTail(a.Tail); ok {
-		var em [][2]float64
-		for _, f := range e.Flights {
-			if !f.Time.Before(start) && !f.Time.After(end) {
-				em = append(em, [2]float64{x(f.Time), f.RollingPct})
-			}
-		}
+	if hasEngine {
 		spec.series = append(spec.series, series{points: em, line: true, style: s.st.Engine})
 		for _, st := range e.Steps {
 			spec.marks = append(spec.marks, vmark{x: x(st.Time), style: s.st.Engine})

@@ -1,6 +1,9 @@
 package tui
 
 import (
+	"math"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -147,3 +150,35 @@ func TestTailTitleEngineFlags(t *testing.T) {
 		t.Fatal("no tail with engine flags in the thrust-table demo")
 	}
 }
+
+// The deviation chart's range holds the engine series too: a fuel-flow
+// meter reading 4 % high must not be drawn clipped at the top of an
+// airframe series near zero.
+func TestTailChartHoldsEngine(t *testing.T) {
+	d := demoFleet(t)
+	tail, level := "", 0.0
+	for _, a := range d.Fleet.Tails {
+		if e, ok := d.EngineTail(a.Tail); ok && e.RecentPct-a.RecentPct > 2 {
+			tail, level = a.Tail, e.RecentPct
+			break
+		}
+	}
+	if tail == "" {
+		t.Fatal("no tail in the built-in demo whose engine sits 2 pp above its airframe")
+	}
+	m := sized(d, 100, 30)
+	m.tail.SetTail(tail)
+	m.activate(scrTail)
+	top := math.Inf(-1)
+	for _, l := range strings.Split(m.View(), "\n") {
+		if g := yLabel.FindStringSubmatch(l); g != nil {
+			v, _ := strconv.ParseFloat(g[1], 64)
+			top = math.Max(top, v)
+		}
+	}
+	if top < level-0.3 {
+		t.Errorf("%s: the chart's top label %+.1f %% is below its engine level %+.2f %%:\n%s", tail, top, level, m.View())
+	}
+}
+
+var yLabel = regexp.MustCompile(`^\s*([+-]\d+\.\d)%│`)
