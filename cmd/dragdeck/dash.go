@@ -55,7 +55,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	if err != nil {
 		return err
 	}
-	ros, files, err := typeAndFiles(fs, types)
+	ros, files, err := typeAndFiles(e.stderr, fs, types)
 	if err != nil {
 		return err
 	}

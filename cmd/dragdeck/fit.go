@@ -74,7 +74,7 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 			return usageErrorf("--to: %v", err)
 		}
 	}
-	ros, files, err := typeAndFiles(fs, types)
+	ros, files, err := typeAndFiles(e.stderr, fs, types)
 	if err != nil {
 		return err
 	}

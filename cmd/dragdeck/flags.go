@@ -5,6 +5,8 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
 	"strings"
 	"time"
 
@@ -252,7 +254,7 @@ func (c typeChoice) one() (*model.Type, error) {
 
 // typeAndFiles loads --type or --fleet and expands the PATH arguments, the
 // preamble of every command that reads snapshot files.
-func typeAndFiles(fs *flagSet, c typeChoice) (*model.Roster, []string, error) {
+func typeAndFiles(stderr io.Writer, fs *flagSet, c typeChoice) (*model.Roster, []string, error) {
 	r, err := c.roster()
 	if err != nil {
 		return nil, nil, err
@@ -261,7 +263,31 @@ func typeAndFiles(fs *flagSet, c typeChoice) (*model.Roster, []string, error) {
 	if err != nil {
 		return nil, nil, err
 	}
+	if *c.typ == "" && *c.fleet == "" {
+		if f := fleetBeside(fs.Args()); f != "" {
+			fmt.Fprintf(stderr, "dragdeck: note: %s lies beside the snapshots, but without --fleet (or --type) every tail is analysed as the built-in demo type\n", f)
+		}
+	}
 	return r, files, nil
+}
+
+// fleetBeside returns a fleet file (fleet.toml) in a folder given, or in
+// the folder of a path given or its parent, when there is one: the user
+// probably meant to pass it with --fleet.
+func fleetBeside(paths []string) string {
+	for _, p := range paths {
+		dir := p
+		if fi, err := os.Stat(p); err != nil || !fi.IsDir() {
+			dir = filepath.Dir(p)
+		}
+		for _, d := range []string{dir, filepath.Dir(dir)} {
+			f := filepath.Join(d, "fleet.toml")
+			if fi, err := os.Stat(f); err == nil && fi.Mode().IsRegular() {
+				return f
+			}
+		}
+	}
+	return ""
 }
 
 // readEvents reads --events, if given.

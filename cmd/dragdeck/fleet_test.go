@@ -171,3 +171,33 @@ func TestDemoFleetFile(t *testing.T) {
 		}
 	}
 }
+
+// A fleet file beside the snapshots, not given: the reading commands say
+// so on stderr (the data would be analysed as the built-in type), and say
+// nothing once --fleet or --type is given.
+func TestFleetBesideNote(t *testing.T) {
+	dir := t.TempDir()
+	if code, _, errs := runArgs("demo", "--out", dir, "--tails", "3", "--days", "20", "--seed", "2"); code != 0 {
+		t.Fatal(errs)
+	}
+	snaps := filepath.Join(dir, "snapshots")
+	cases := []struct {
+		name string
+		args []string
+		note bool
+	}{
+		{"folder, no fleet", []string{"report", snaps}, true},
+		{"file, no fleet", []string{"report", filepath.Join(dir, demo.SnapshotFile)}, true},
+		{"with --fleet", []string{"report", "--fleet", filepath.Join(dir, demo.FleetFile), snaps}, false},
+		{"with --type", []string{"report", "--type", filepath.Join(dir, demo.TypeFilePath("DD-200")), snaps}, false},
+		{"fit, no fleet", []string{"fit", snaps}, true},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, _, errs := runArgs(c.args...)
+			if got := strings.Contains(errs, "fleet.toml lies beside the snapshots"); got != c.note {
+				t.Errorf("note %v, want %v; stderr:\n%s", got, c.note, errs)
+			}
+		})
+	}
+}

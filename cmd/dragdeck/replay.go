@@ -31,7 +31,7 @@ stderr.`,
 	if math.IsNaN(*speed) || math.IsInf(*speed, 0) || *speed < 0 {
 		return usageErrorf("--speed: must be ≥ 0, got %g", *speed)
 	}
-	ros, files, err := typeAndFiles(fs, types)
+	ros, files, err := typeAndFiles(e.stderr, fs, types)
 	if err != nil {
 		return err
 	}

@@ -240,7 +240,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	default:
 		return usageErrorf("--format: %q is not table, csv or json", *format)
 	}
-	ros, files, err := typeAndFiles(fs, types)
+	ros, files, err := typeAndFiles(e.stderr, fs, types)
 	if err != nil {
 		return err
 	}
