@@ -313,20 +313,27 @@ func (g *demoGen) assignRoles() {
 	g.typeMedians = keepFromLimit(items)
 	for i := range g.tails {
 		tt := &g.tails[i]
-		tt.ExpectedFlags = []string{}
-		if tt.RecentLevelPct >= g.typeMedians[tt.finalType()]+truthLevelPP {
-			tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagLevel)
-		}
-		if tt.DriftPctPer100d*1.8 >= truthGrowthPP {
-			tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagGrowth)
-		}
-		for _, s := range tt.Steps {
-			if s.SizePct >= truthStepPP {
-				tt.ExpectedFlags = append(tt.ExpectedFlags, model.FlagStep)
-				break
-			}
+		tt.ExpectedFlags = expectFlags(tt.RecentLevelPct, g.typeMedians[tt.finalType()], tt.DriftPctPer100d, tt.Steps)
+	}
+}
+
+// expectFlags gives the flags that the rules of DESIGN.md §4.9 raise on a
+// planted series: its recent level against its type's median, its drift
+// over 180 days, a step up (the planted steps are never undone).
+func expectFlags(recent, median, drift float64, steps []StepTruth) []string {
+	flags := []string{}
+	if recent >= median+truthLevelPP {
+		flags = append(flags, model.FlagLevel)
+	}
+	if drift*1.8 >= truthGrowthPP {
+		flags = append(flags, model.FlagGrowth)
+	}
+	for _, s := range steps {
+		if s.SizePct >= truthStepPP {
+			return append(flags, model.FlagStep)
 		}
 	}
+	return flags
 }
 
 // assignRetrofits moves one steady tail of each group named by another's

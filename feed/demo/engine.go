@@ -134,19 +134,7 @@ func (g *demoGen) assignEngines() {
 		if e == nil {
 			continue
 		}
-		e.ExpectedFlags = []string{}
-		if e.RecentLevelPct >= g.engineMedians[tt.finalType()]+truthLevelPP {
-			e.ExpectedFlags = append(e.ExpectedFlags, model.FlagLevel)
-		}
-		if e.DriftPctPer100d*1.8 >= truthGrowthPP {
-			e.ExpectedFlags = append(e.ExpectedFlags, model.FlagGrowth)
-		}
-		for _, s := range e.Steps {
-			if s.SizePct >= truthStepPP {
-				e.ExpectedFlags = append(e.ExpectedFlags, model.FlagStep)
-				break
-			}
-		}
+		e.ExpectedFlags = expectFlags(e.RecentLevelPct, g.engineMedians[tt.finalType()], e.DriftPctPer100d, e.Steps)
 	}
 }
 
