@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 	"strings"
 	"time"
 
@@ -16,12 +15,12 @@ import (
 // with '#' comments. It returns the events by tail. A bad row is an error
 // "file:line: column: reason"; events are few, so one bad row stops it.
 func ReadEvents(path string) (map[string][]model.Event, error) {
-	f, err := os.Open(path)
+	f, err := OpenRegular(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	r := csv.NewReader(f)
+	r := csv.NewReader(&cappedReader{r: f, n: MaxEventsFile, path: path, limit: MaxEventsFile})
 	r.Comment = '#'
 	r.FieldsPerRecord = -1
 	r.TrimLeadingSpace = true

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
-	"os"
 	"path/filepath"
 	"strings"
 	"time"
@@ -34,7 +33,7 @@ type fleetTail struct {
 // the fleet file's folder) and returns its roster. Errors read
 // "file:line: key: reason".
 func LoadFleet(path string) (*model.Roster, error) {
-	data, err := os.ReadFile(path)
+	data, err := ReadSmall(path, MaxFleetFile)
 	if err != nil {
 		return nil, fmt.Errorf("fleet file: %w", err)
 	}
@@ -152,16 +151,20 @@ func tomlError(name string, err error, kinds map[string]string) error {
 	if errors.As(err, &sm) && len(sm.Errors) > 0 {
 		var msgs []string
 		for i := range sm.Errors {
+			if i == maxListed {
+				msgs = append(msgs, fmt.Sprintf("and %d more unknown keys", len(sm.Errors)-i))
+				break
+			}
 			e := &sm.Errors[i]
 			row, _ := e.Position()
-			msgs = append(msgs, fmt.Sprintf("%s:%d: %s: unknown key", name, row, strings.Join(e.Key(), ".")))
+			msgs = append(msgs, fmt.Sprintf("%s:%d: %s: unknown key", name, row, keyText(e.Key())))
 		}
 		return errors.New(strings.Join(msgs, "; "))
 	}
 	var de *toml.DecodeError
 	if errors.As(err, &de) {
 		row, _ := de.Position()
-		key := strings.Join(de.Key(), ".")
+		key := keyText(de.Key())
 		if kind, ok := kinds[key]; ok {
 			return fmt.Errorf("%s:%d: %s: must be %s", name, row, key, kind)
 		}
@@ -171,6 +174,19 @@ func tomlError(name string, err error, kinds map[string]string) error {
 		return fmt.Errorf("%s:%d:%s %s", name, row, key, strings.TrimPrefix(de.Error(), "toml: "))
 	}
 	return fmt.Errorf("%s: %w", name, err)
+}
+
+// maxListed is how many unknown keys an error lists.
+const maxListed = 10
+
+// keyText is a dotted TOML key for a message, cut to 60 runes: a hostile
+// file's key can be thousands of parts long.
+func keyText(parts []string) string {
+	k := strings.Join(parts, ".")
+	if r := []rune(k); len(r) > 60 {
+		return string(r[:59]) + "…"
+	}
+	return k
 }
 
 // arrayTableLines returns the 1-based line of each [[key]] header of a

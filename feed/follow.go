@@ -95,7 +95,7 @@ func (fl *Follower) restart() {
 // step does one round of work and reports whether it read anything.
 func (fl *Follower) step(emit func(Record) error, reject func(*RowError)) (bool, error) {
 	if fl.f == nil {
-		f, err := os.Open(fl.Path)
+		f, err := OpenRegular(fl.Path) // a pipe, device or folder is an error: following it would never end
 		if errors.Is(err, fs.ErrNotExist) {
 			if !fl.waiting {
 				fl.Notice(fmt.Sprintf("%s: waiting for the file to appear", fl.Path))

@@ -168,7 +168,7 @@ func (c countingReader) Read(p []byte) (int, error) {
 // ReadFileWith is ReadFile with options: a progress count and a tail check.
 func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func(*RowError)) FileResult {
 	res := FileResult{Path: path}
-	f, err := os.Open(path)
+	f, err := OpenRegular(path)
 	if err != nil {
 		res.Err = err
 		return res
@@ -218,7 +218,7 @@ func ExpandPaths(paths []string) ([]string, error) {
 			return nil, err
 		}
 		if !info.IsDir() {
-			out = append(out, p)
+			out = append(out, p) // a pipe or device is refused when it is read, on its own
 			continue
 		}
 		var found []string

@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"os"
 	"strconv"
 	"strings"
 
@@ -42,7 +41,7 @@ func LoadType(path string) (*model.Type, error) {
 	if path == "" {
 		return DemoType(), nil
 	}
-	data, err := os.ReadFile(path)
+	data, err := ReadSmall(path, MaxTypeFile)
 	if err != nil {
 		return nil, fmt.Errorf("type file: %w", err)
 	}

@@ -50,42 +50,46 @@ func (e *FieldError) Error() string { return e.Key + ": " + e.Reason }
 // (≡ lb/(lbf·h) ≡ 1/h) to SI kg/(N·s): divide by g0 and by 3600 s.
 func TSFCPerHour(c float64) float64 { return c / (G0 * Hour) }
 
-// Validate reports the first impossible value of t as a *FieldError that
-// names its type-file key.
+// Validate reports the first value of t outside its plausible range as a
+// *FieldError that names its type-file key. The ranges are wide enough for
+// any jet transport or business jet (common practice, not a source): a value
+// outside them is a typing or unit error, and would otherwise give infinite
+// or absurd results (a wing area of 1e-300 m², an MMO of 1e-9).
 func (t *Type) Validate() error {
-	bad := func(key, format string, args ...any) error {
-		return &FieldError{Key: key, Reason: fmt.Sprintf(format, args...)}
+	deg := 180 / math.Pi
+	perH := G0 * Hour
+	for _, r := range []struct {
+		key    string
+		v      float64
+		lo, hi float64 // plausible range, inclusive
+		unit   string
+	}{
+		{"wing.area_m2", t.WingArea, 5, 2000, " m²"},
+		{"wing.span_m", t.Span, 5, 120, " m"},
+		{"polar.cd0", t.CD0, 0.005, 0.1, ""},
+		{"polar.oswald", t.Oswald, 0.4, 1.2, ""},
+		{"wave.kappa_a", t.KappaA, 0.7, 1.1, ""},
+		{"wave.thickness_ratio", t.ThicknessRatio, 0.04, 0.25, ""},
+		{"wave.sweep_deg", t.Sweep * deg, 0, 60, "°"},
+		{"engine.count", float64(t.EngineCount), 1, 8, ""},
+		{"engine.tsfc_a_per_h", t.TSFCA * perH, 0.05, 1.5, " /h"},
+		{"engine.tsfc_b_per_h", t.TSFCB * perH, -1, 1.5, " /h"},
+		{"limits.mmo", t.MMO, 0.4, 0.99, ""},
+		{"limits.max_alt_ft", t.MaxAltitude / Foot, 10000, 65000, " ft"},
+		{"limits.cl_buffet", t.CLBuffet, 0.3, 1.5, ""},
+	} {
+		if !(r.v >= r.lo && r.v <= r.hi) { // NaN fails too
+			return &FieldError{Key: r.key, Reason: fmt.Sprintf("must be %g … %g%s, got %.4g", r.lo, r.hi, r.unit, r.v)}
+		}
 	}
-	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
-	switch {
-	case !finite(t.WingArea) || t.WingArea <= 0:
-		return bad("wing.area_m2", "must be > 0, got %g", t.WingArea)
-	case !finite(t.Span) || t.Span <= 0:
-		return bad("wing.span_m", "must be > 0, got %g", t.Span)
-	case !finite(t.CD0) || t.CD0 <= 0 || t.CD0 >= 0.2:
-		return bad("polar.cd0", "must be in (0, 0.2), got %g", t.CD0)
-	case !finite(t.Oswald) || t.Oswald <= 0 || t.Oswald > 1.2:
-		return bad("polar.oswald", "must be in (0, 1.2], got %g", t.Oswald)
-	case !finite(t.KappaA) || t.KappaA <= 0 || t.KappaA > 1.5:
-		return bad("wave.kappa_a", "must be in (0, 1.5], got %g", t.KappaA)
-	case !finite(t.ThicknessRatio) || t.ThicknessRatio <= 0 || t.ThicknessRatio >= 0.5:
-		return bad("wave.thickness_ratio", "must be in (0, 0.5), got %g", t.ThicknessRatio)
-	case !finite(t.Sweep) || t.Sweep < 0 || t.Sweep >= 70*math.Pi/180:
-		return bad("wave.sweep_deg", "must be in [0, 70), got %g", t.Sweep*180/math.Pi)
-	case t.EngineCount < 1 || t.EngineCount > 8:
-		return bad("engine.count", "must be 1 … 8, got %d", t.EngineCount)
-	case !finite(t.TSFCA) || t.TSFCA <= 0:
-		return bad("engine.tsfc_a_per_h", "must be > 0, got %g", t.TSFCA*G0*Hour)
-	case !finite(t.TSFCB) || t.TSFCA+t.TSFCB <= 0:
-		return bad("engine.tsfc_b_per_h", "a + b must be > 0 so that TSFC stays positive up to Mach 1, got b = %g", t.TSFCB*G0*Hour)
-	case !finite(t.MaxThrustPerDelta) || t.MaxThrustPerDelta < 0:
-		return bad("engine.max_cruise_thrust_per_delta_n", "must be > 0 when given, got %g", t.MaxThrustPerDelta)
-	case !finite(t.MMO) || t.MMO <= 0 || t.MMO >= 1:
-		return bad("limits.mmo", "must be in (0, 1), got %g", t.MMO)
-	case !finite(t.MaxAltitude) || t.MaxAltitude <= 0 || t.MaxAltitude > 65000*Foot:
-		return bad("limits.max_alt_ft", "must be in (0, 65000], got %g", t.MaxAltitude/Foot)
-	case !finite(t.CLBuffet) || t.CLBuffet <= 0 || t.CLBuffet > 3:
-		return bad("limits.cl_buffet", "must be in (0, 3], got %g", t.CLBuffet)
+	if ar := t.AspectRatio(); ar < 3 || ar > 20 {
+		return &FieldError{Key: "wing.span_m", Reason: fmt.Sprintf("aspect ratio b²/S must be 3 … 20, got %.3g", ar)}
+	}
+	if a08 := (t.TSFCA + 0.8*t.TSFCB) * perH; a08 < 0.2 || a08 > 1.5 || t.TSFCA+t.TSFCB <= 0 {
+		return &FieldError{Key: "engine.tsfc_b_per_h", Reason: fmt.Sprintf("TSFC a + 0.8 b at Mach 0.8 must be 0.2 … 1.5 /h and a + b > 0, got %.3g and %.3g", a08, (t.TSFCA+t.TSFCB)*perH)}
+	}
+	if m := t.MaxThrustPerDelta; m != 0 && !(m >= 1e3 && m <= 2e6) {
+		return &FieldError{Key: "engine.max_cruise_thrust_per_delta_n", Reason: fmt.Sprintf("must be 1000 … 2e+06 N when given, got %.4g", m)}
 	}
 	return nil
 }

@@ -110,6 +110,15 @@ func TestValidateNamesKey(t *testing.T) {
 		{"limits.mmo", func(t *Type) { t.MMO = 1 }},
 		{"limits.max_alt_ft", func(t *Type) { t.MaxAltitude = 0 }},
 		{"limits.cl_buffet", func(t *Type) { t.CLBuffet = 0 }},
+		// degenerate values that once gave +Inf or absurd results
+		{"wing.area_m2", func(t *Type) { t.WingArea = 1e-300 }},
+		{"limits.mmo", func(t *Type) { t.MMO = 1e-9 }},
+		{"polar.oswald", func(t *Type) { t.Oswald = 1e-9 }},
+		{"wing.span_m", func(t *Type) { t.Span = 100 }},                       // aspect ratio 89
+		{"engine.tsfc_b_per_h", func(t *Type) { t.TSFCB = TSFCPerHour(1.4) }}, // TSFC 1.5 at M0.8
+		{"engine.max_cruise_thrust_per_delta_n", func(t *Type) { t.MaxThrustPerDelta = 1e-6 }},
+		{"polar.cd0", func(t *Type) { t.CD0 = 0.5 }},
+		{"limits.max_alt_ft", func(t *Type) { t.MaxAltitude = 1e9 }},
 	}
 	if err := twin().Validate(); err != nil {
 		t.Fatalf("valid type rejected: %v", err)

@@ -47,7 +47,7 @@ func TestRunExitCodes(t *testing.T) {
 		{"negative cost index", []string{"speed", "--weight-kg", "65000", "--alt-ft", "35000", "--cost-index", "-1"}, 2, "", "--cost-index"},
 		{"missing type file", []string{"speed", "--type", "/no/such.toml", "--weight-kg", "65000", "--alt-ft", "35000"}, 2, "", "--type: type file: open /no/such.toml"},
 		{"another type drives everything", []string{"speed", "--type", "../../testdata/types/widebody.toml", "--weight-kg", "230000", "--alt-ft", "37000"}, 0, "WB-9 test widebody", ""},
-		{"invalid type names key and line", []string{"bank", "--type", "../../testdata/types/bad_oswald.toml", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78"}, 2, "", "bad_oswald.toml:7: polar.oswald: must be in (0, 1.2]"},
+		{"invalid type names key and line", []string{"bank", "--type", "../../testdata/types/bad_oswald.toml", "--weight-kg", "65000", "--alt-ft", "35000", "--mach", "0.78"}, 2, "", "bad_oswald.toml:7: polar.oswald: must be 0.4 … 1.2"},
 		{"altitude out of range", []string{"speed", "--weight-kg", "65000", "--alt-ft", "70000"}, 2, "", "--alt-ft: pressure altitude"},
 		{"ISA deviation too hot", []string{"speed", "--weight-kg", "65000", "--alt-ft", "0", "--isa-dev-c", "50"}, 2, "", "--isa-dev-c"},
 	}
