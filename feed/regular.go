@@ -44,6 +44,10 @@ func checkRegular(path string, m fs.FileMode) error {
 // for a pipe between the two is refused too.
 func OpenRegular(path string) (*os.File, error) {
 	if fi, err := os.Stat(path); err != nil {
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			pe.Op = "open" // as os.Open says it: the file could not be opened
+		}
 		return nil, err
 	} else if err := checkRegular(path, fi.Mode()); err != nil {
 		return nil, err
