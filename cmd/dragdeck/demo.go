@@ -10,7 +10,7 @@ import (
 )
 
 func runDemo(e *env, args []string) error {
-	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE] [--clean]",
+	fs := newFlagSet("demo", "dragdeck demo --out DIR [--tails N] [--days D] [--seed S] [--type FILE] [--clean] [--force]",
 		`Writes the invented demo fleet into DIR: snapshots/fleet.csv (cruise
 snapshots of every tail, with a few broken rows on purpose), fleet.toml (the
 fleet file: each tail's type, use it with --fleet), types/ (one type file per
@@ -30,7 +30,12 @@ tails in four record fan speed (n1_pct), the others are older recorders.
 wing area and buffet limit, speeds with its maximum-range Mach. The recorded
 snapshots carry the errors of real recorders (weight per flight 0.3 %, Mach
 0.001, SAT 0.3 K, fuel flow 0.4 % per flight, the seasonal temperature);
-truth.json lists them, and --clean leaves them all out.`,
+truth.json lists them, and --clean leaves them all out.
+
+DIR must be new or empty: a folder that holds files is refused, unless
+--force, which replaces the files of an earlier demo there (stale traces and
+type files included) and keeps every other file. Nothing is written through
+a symbolic link.`,
 		"dragdeck demo --out /tmp/fleet --tails 24 --days 730 --seed 1")
 	typ := fs.str("type", "FILE", "", "fly every tail on this one type (TOML); default: the built-in mixed fleet of three types")
 	out := fs.str("out", "DIR", "", "folder to write into, created if needed (required)")
@@ -38,6 +43,7 @@ truth.json lists them, and --clean leaves them all out.`,
 	days := fs.Int("days", 730, "days of data")
 	seed := fs.Uint64("seed", 1, "random seed")
 	clean := fs.Bool("clean", false, "leave out the sensor effects (weight, Mach, SAT and fuel-flow errors, seasons)")
+	force := fs.Bool("force", false, "write into a folder that holds files: an earlier demo's files are replaced, others kept")
 	fs.argNames["tails"], fs.argNames["days"], fs.argNames["seed"] = "N", "D", "S"
 	fs.required = append(fs.required, "out")
 	if err := fs.noArgs(fs.parse(args, e.stdout)); err != nil {
@@ -60,7 +66,7 @@ truth.json lists them, and --clean leaves them all out.`,
 			return err
 		}
 	}
-	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t, Clean: *clean})
+	truth, err := demo.Write(*out, demo.Config{Tails: *tails, Days: *days, Seed: *seed, Type: t, Clean: *clean, Overwrite: *force})
 	if err != nil {
 		return usageErrorf("--out: %v", err)
 	}

@@ -44,6 +44,9 @@ type Config struct {
 	// defaults, DefaultEffects); Clean leaves them all out.
 	Effects *Effects
 	Clean   bool
+	// Overwrite lets Write use a folder that holds files: those of an
+	// earlier demo are replaced, the others kept.
+	Overwrite bool
 }
 
 func (c Config) withDefaults() Config {

@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"sort"
 	"time"
@@ -177,7 +176,7 @@ func (g *demoGen) writeTrace(path string, rows []demoRow) error {
 		buf = g.appendRow(buf[:0], r)
 		b.Write(buf)
 	}
-	return os.WriteFile(path, b.Bytes(), 0o644)
+	return writeNew(path, b.Bytes())
 }
 
 // newTruth starts the truth record of a generation.
@@ -200,22 +199,22 @@ func (g *demoGen) newTruth() Truth {
 		Traces:         []TraceTruth{},
 		Note: "Invented data. Deviations are drag deviation % from the baseline polar at the reference cruise: an excess " +
 			"ΔCD = deviation/100 × reference_cd_baseline, the same at every lift coefficient; expected_flags follow " +
-			"the flag rules (level, growth, step; see the README's method) with the thresholds above and the fleet median recent level.",
+			"the flag rules (level, growth, step; see the README's method) with the thresholds above and the median recent level of the tail's own type (types).",
 	}
 }
 
 // Write writes the demo fleet into dir (created if needed): the snapshot
-// CSV, the type file, the events file, per-minute traces of a few flights
-// and truth.json. The same config gives the same bytes.
+// CSV, the fleet file, the type files, the events file, per-minute traces
+// of a few flights and truth.json. The same config gives the same bytes. A
+// folder that holds anything is refused (ErrNotEmpty) unless
+// cfg.Overwrite; no file is written through a symbolic link.
 func Write(dir string, cfg Config) (Truth, error) {
 	g := newDemoGen(cfg)
 	truth := g.newTruth()
-	for _, sub := range []string{TraceDir, TypeDir, filepath.Dir(SnapshotFile)} {
-		if err := os.MkdirAll(filepath.Join(dir, sub), 0o755); err != nil {
-			return truth, err
-		}
+	if err := prepareDir(dir, cfg.Overwrite); err != nil {
+		return truth, err
 	}
-	f, err := os.Create(filepath.Join(dir, SnapshotFile))
+	f, err := createNew(filepath.Join(dir, SnapshotFile))
 	if err != nil {
 		return truth, err
 	}
@@ -227,17 +226,17 @@ func Write(dir string, cfg Config) (Truth, error) {
 		return truth, err
 	}
 	for _, c := range g.types {
-		if err := os.WriteFile(filepath.Join(dir, TypeFilePath(c.group.Name)), feed.FormatType(c.ty), 0o644); err != nil {
+		if err := writeNew(filepath.Join(dir, TypeFilePath(c.group.Name)), feed.FormatType(c.ty)); err != nil {
 			return truth, err
 		}
 	}
-	if err := os.WriteFile(filepath.Join(dir, FleetFile), g.fleetFile(), 0o644); err != nil {
+	if err := writeNew(filepath.Join(dir, FleetFile), g.fleetFile()); err != nil {
 		return truth, err
 	}
 	truth.Events = g.events()
 	var ev bytes.Buffer
 	writeEvents(&ev, truth.Events)
-	if err := os.WriteFile(filepath.Join(dir, EventsFile), ev.Bytes(), 0o644); err != nil {
+	if err := writeNew(filepath.Join(dir, EventsFile), ev.Bytes()); err != nil {
 		return truth, err
 	}
 	for _, tr := range g.traceTails() {
@@ -252,7 +251,7 @@ func Write(dir string, cfg Config) (Truth, error) {
 	if err != nil {
 		return truth, err
 	}
-	return truth, os.WriteFile(filepath.Join(dir, TruthFile), append(js, '\n'), 0o644)
+	return truth, writeNew(filepath.Join(dir, TruthFile), append(js, '\n'))
 }
 
 type traceChoice struct {
