@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"hash/fnv"
 	"image/color"
 	"math"
 	"os"
@@ -28,19 +29,29 @@ var (
 	colSteady  = color.RGBA{120, 140, 160, 255} // unflagged tails
 )
 
-// writePlots writes one PNG per tail with flights and, when there are
-// tails, fleet.png into dir. It returns how many it wrote.
+// maxOverview is the number of tails fleet.png shows at most: the most
+// severe, so that the picture stays a readable size on any fleet.
+const maxOverview = 60
+
+// writePlots writes one PNG per tail with flights (tail-NAME.png, names
+// from plotNames) and, when there are tails, fleet.png into dir. It
+// returns how many it wrote.
 func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return 0, err
 	}
+	tails := make([]string, len(f.Tails))
+	for i, a := range f.Tails {
+		tails[i] = a.Tail
+	}
+	names := plotNames(tails)
 	n := 0
 	for _, a := range f.Tails {
 		if len(a.Flights) == 0 {
 			continue
 		}
 		p := tailPlot(a, c)
-		if err := p.Save(24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, safeName(a.Tail)+".png")); err != nil {
+		if err := p.Save(24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, names[a.Tail])); err != nil {
 			return n, err
 		}
 		n++
@@ -48,14 +59,41 @@ func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
 	if len(f.Tails) == 0 {
 		return n, nil
 	}
-	p := fleetPlot(f)
-	h := vg.Length(6+0.45*float64(len(f.Tails))) * vg.Centimeter
+	p, shown := fleetPlot(f)
+	h := vg.Length(6+0.45*float64(shown)) * vg.Centimeter
 	return n + 1, p.Save(20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
 }
 
-// safeName keeps a tail name usable as a file name.
+// plotNames gives each tail a file name of its own: "tail-" and the tail
+// with every character but letters, digits, '-' and '_' replaced by '_',
+// cut to 60 bytes. Where that changed the name, or two names would meet
+// (case aside, for file systems that ignore it), the name gets 8 hex
+// digits of a hash of the tail, so DD 101, DD.101 and DD/101 stay apart.
+// The prefix keeps a tail called "fleet" off the overview.
+func plotNames(tails []string) map[string]string {
+	out := map[string]string{}
+	used := map[string]bool{}
+	sorted := append([]string(nil), tails...)
+	sort.Strings(sorted) // the same names whatever the order of the tails
+	for _, t := range sorted {
+		safe := safeName(t)
+		if safe != t || used[strings.ToLower(safe)] {
+			h := fnv.New32a()
+			h.Write([]byte(t))
+			safe = fmt.Sprintf("%s-%08x", safe, h.Sum32())
+		}
+		used[strings.ToLower(safe)] = true
+		out[t] = "tail-" + safe + ".png"
+	}
+	return out
+}
+
+// safeName keeps a tail name usable as a file name, cut to 60 bytes.
 func safeName(s string) string {
 	b := []byte(s)
+	if len(b) > 60 {
+		b = b[:60]
+	}
 	for i, c := range b {
 		if !(c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' || c >= '0' && c <= '9' || c == '-' || c == '_') {
 			b[i] = '_'
@@ -70,7 +108,11 @@ func unix(tr model.TailTrend, i int) float64 { return float64(tr.Flights[i].Time
 // rolling median, the drift line, the steps and the events.
 func tailPlot(a model.TailAssessment, c model.TrendConfig) *plot.Plot {
 	p := plot.New()
-	title := fmt.Sprintf("%s: drag deviation per flight", a.Tail)
+	name := a.Tail
+	if r := []rune(name); len(r) > 40 {
+		name = string(r[:39]) + "…"
+	}
+	title := fmt.Sprintf("%s: drag deviation per flight", name)
 	if len(a.Flags) > 0 {
 		title += "  (flags: " + strings.Join(a.Flags, ", ") + ")"
 	}
@@ -149,17 +191,24 @@ func minMax(v []float64) (float64, float64) {
 
 // fleetPlot draws each tail's recent deviation as a horizontal bar, highest
 // at the top, flagged tails in the flag colour.
-func fleetPlot(f model.Fleet) *plot.Plot {
+func fleetPlot(f model.Fleet) (*plot.Plot, int) {
 	p := plot.New()
 	p.Title.Text = fmt.Sprintf("Fleet: recent drag deviation per tail (%d flagged)", f.Flagged)
 	p.X.Label.Text = "recent drag deviation from baseline, %"
 	p.X.Tick.Marker = roundTicks{8}
 	p.Add(plotter.NewGrid())
 	tails := append([]model.TailAssessment(nil), f.Tails...)
+	if len(tails) > maxOverview { // the most severe (the fleet's order)
+		p.Title.Text = fmt.Sprintf("Fleet: the %d most severe of %d tails, recent drag deviation (%d flagged)", maxOverview, len(tails), f.Flagged)
+		tails = tails[:maxOverview]
+	}
 	sort.SliceStable(tails, func(i, j int) bool { return nanLowF(tails[i].RecentPct) < nanLowF(tails[j].RecentPct) })
 	names := make([]string, len(tails))
 	for i, a := range tails {
 		names[i] = a.Tail
+		if r := []rune(a.Tail); len(r) > 24 {
+			names[i] = string(r[:23]) + "…"
+		}
 		c := colSteady
 		if len(a.Flags) > 0 {
 			c = colStep
@@ -179,7 +228,7 @@ func fleetPlot(f model.Fleet) *plot.Plot {
 		p.Legend.Add(fmt.Sprintf("fleet median %+.2f %%", f.MedianRecentPct), l)
 	}
 	p.NominalY(names...)
-	return p
+	return p, len(tails)
 }
 
 func nanLowF(v float64) float64 {
