@@ -2,6 +2,7 @@ package feed
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -204,16 +205,25 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
 	}
 	t, err := time.Parse(time.RFC3339, string(tf))
+	if _, off := t.Zone(); err == nil && (off <= -24*3600 || off >= 24*3600) {
+		err = errors.New("offset of 24 h or more") // RFC 3339 offsets have hours 00–23
+	}
 	if err != nil {
-		return d.reject(n, h.name[colTime], ErrTime, fmt.Sprintf("%q is not an RFC 3339 time such as 2026-03-01T10:22:00Z", tf))
+		return d.reject(n, h.name[colTime], ErrTime, fmt.Sprintf("%s is not an RFC 3339 time such as 2026-03-01T10:22:00Z", quoteField(tf)))
 	}
 	rec.Time = t.UTC() // UTC inside, whatever offset the file uses
 	tail := f(colTail)
 	if len(tail) == 0 {
 		return d.reject(n, h.name[colTail], ErrEmpty, "empty")
 	}
+	if why := badID(tail); why != "" {
+		return d.reject(n, h.name[colTail], ErrID, why)
+	}
 	rec.Tail = intern(d.tails, tail)
 	if h.idx[colFlight] >= 0 {
+		if why := badID(f(colFlight)); why != "" {
+			return d.reject(n, h.name[colFlight], ErrID, why)
+		}
 		if len(d.flights) > 1<<16 {
 			clear(d.flights)
 		}
@@ -233,11 +243,11 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 			continue // optional: 0
 		}
 		x, err := strconv.ParseFloat(string(b), 64)
-		if err != nil {
-			return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%q is not a number", b))
-		}
-		if math.IsNaN(x) || math.IsInf(x, 0) {
+		if err == nil && (math.IsNaN(x) || math.IsInf(x, 0)) {
 			return d.reject(n, h.name[c], ErrNotFinite, "not a finite number")
+		}
+		if err != nil || !plainDecimal(b) {
+			return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%s is not a number", quoteField(b)))
 		}
 		v[c] = x
 	}

@@ -59,11 +59,14 @@ func ReadEvents(path string) (map[string][]model.Event, error) {
 		}
 		t, err := time.Parse(time.RFC3339, get("time"))
 		if err != nil {
-			return nil, fmt.Errorf("%s:%d: time: %q is not an RFC 3339 time", path, line, get("time"))
+			return nil, fmt.Errorf("%s:%d: time: %s is not an RFC 3339 time", path, line, quoteField([]byte(get("time"))))
 		}
 		tail := get("tail")
 		if tail == "" {
 			return nil, fmt.Errorf("%s:%d: tail: empty", path, line)
+		}
+		if why := badID([]byte(tail)); why != "" {
+			return nil, fmt.Errorf("%s:%d: tail: %s", path, line, why)
 		}
 		out[tail] = append(out[tail], model.Event{Time: t.UTC(), Kind: get("kind"), Note: get("note")})
 	}

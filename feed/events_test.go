@@ -20,6 +20,7 @@ func TestReadEvents(t *testing.T) {
 		{"no header", "# only a comment\n", "no header line", 0},
 		{"missing kind", "time,tail,note\n", "missing required column kind", 0},
 		{"bad time", "time,tail,kind\nyesterday,DD101,wash\n", "e.csv:2: time:", 0},
+		{"escape in a tail", "time,tail,kind\n2026-03-01T05:00:00Z,DD\x1b[2J,wash\n", "e.csv:2: tail: holds a control character", 0},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

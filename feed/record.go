@@ -31,6 +31,7 @@ var (
 	ErrQuote      = errors.New("bad quoting")
 	ErrTooLong    = errors.New("line too long")
 	ErrNotInFleet = errors.New("tail not in the fleet file")
+	ErrID         = errors.New("bad id")
 )
 
 // RowError is a rejected row: "file:line: column: reason". Reading goes on

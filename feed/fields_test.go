@@ -1,0 +1,48 @@
+package feed
+
+import (
+	"strings"
+	"testing"
+)
+
+// Rows that once were accepted or misread: control characters in ids (an
+// escape sequence set the terminal's title and blanked the Fleet screen),
+// hexadecimal and digit-separated numbers, a +24:00 offset; and messages
+// that printed a 300-digit field whole.
+func TestHostileFields(t *testing.T) {
+	row := func(tm, tail, flight, weight string) string {
+		return "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n" +
+			tm + "," + tail + "," + flight + "," + weight + ",35000,0.78,-54.3,2380\n"
+	}
+	ok := "2026-03-01T10:22:00Z"
+	cases := []struct {
+		name, data, column, reason string
+	}{
+		{"escape in a tail", row(ok, "EV\x1b]0;pwn\x07IL", "F1", "65000"), "tail", "control character"},
+		{"C1 control in a tail", row(ok, "EV\u009bIL", "F1", "65000"), "tail", "control character"},
+		{"bell in a flight", row(ok, "DD101", "F\x07", "65000"), "flight", "control character"},
+		{"invalid UTF-8 tail", row(ok, "DD\xff101", "F1", "65000"), "tail", "UTF-8"},
+		{"tail of 65 bytes", row(ok, strings.Repeat("A", 65), "F1", "65000"), "tail", "longer than 64"},
+		{"hexadecimal float", row(ok, "DD101", "F1", "0x1p16"), "weight_kg", "not a number"},
+		{"digit separators", row(ok, "DD101", "F1", "65_000"), "weight_kg", "not a number"},
+		{"offset +24:00", row("2026-03-01T10:22:00+24:00", "DD101", "F1", "65000"), "time", "RFC 3339"},
+		{"300-digit field cut in the message", row(ok, "DD101", "F1", strings.Repeat("9", 300)+"x"), "weight_kg", "…"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			recs, rejects, _, err := readAll(t, "x.csv", c.data)
+			if err != nil || len(recs) != 0 || len(rejects) != 1 {
+				t.Fatalf("accepted %d, rejects %v, err %v; want one reject", len(recs), rejects, err)
+			}
+			r := rejects[0]
+			if r.Column != c.column || !strings.Contains(r.Error(), c.reason) || len(r.Error()) > 200 {
+				t.Errorf("reject %q (column %s), want column %s with %q in at most 200 bytes", r.Error(), r.Column, c.column, c.reason)
+			}
+		})
+	}
+	for _, good := range []string{"65000", "6.5e4", "+65000.", ".5e5", "6.5E+04"} {
+		if recs, rejects, _, _ := readAll(t, "x.csv", row(ok, "DD-101 ü", "F1", good)); len(recs) != 1 {
+			t.Errorf("%s: %v", good, rejects)
+		}
+	}
+}
