@@ -70,6 +70,18 @@ type header struct {
 	unknown []string           // columns that are ignored
 }
 
+// layout names the columns with a unit of their own (weight, altitude,
+// fuel flow, temperature), for notices: "weight_lb, alt_ft, …".
+func (h *header) layout() string {
+	var out []string
+	for _, c := range []column{colWeight, colAlt, colFuelFlow, colTemp} {
+		if h.idx[c] >= 0 {
+			out = append(out, h.name[c])
+		}
+	}
+	return strings.Join(out, ", ")
+}
+
 // fieldName is the name of field i, or "row" when the header has no such field.
 func (h *header) fieldName(i int) string {
 	if i >= 0 && i < len(h.fields) && h.fields[i] != "" {
@@ -127,9 +139,17 @@ func parseHeader(fields [][]byte) (*header, string) {
 	return h, ""
 }
 
+// quoteName is a column name for a message: as it is when it is plain
+// (letters, digits, '_', '-', '.', ' ', at most 40 bytes), else quoted and
+// cut, so that a hostile header cannot drive the terminal.
 func quoteName(s string) string {
-	if s == "" {
-		return `""`
+	if s == "" || len(s) > 40 {
+		return quoteField([]byte(s))
+	}
+	for _, c := range []byte(s) {
+		if !(c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= '0' && c <= '9' || c == '_' || c == '-' || c == '.' || c == ' ') {
+			return quoteField([]byte(s))
+		}
 	}
 	return s
 }

@@ -37,6 +37,10 @@ type Decoder struct {
 	// CheckTail, when set, rejects the rows of tails it gives a reason
 	// for (a tail that the fleet file does not name, §3.4).
 	CheckTail TailCheck
+	// Notice, when set, is told of a new header line in the middle of
+	// the input (two exports joined): the rows after it are read with its
+	// columns and units.
+	Notice func(string)
 }
 
 // TailCheck says why a tail's snapshot at time t cannot be analysed, or ""
@@ -121,7 +125,30 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 		d.hdr = h
 		return Record{}, false, nil
 	}
+	if isHeader(d.fields) {
+		h, msg := parseHeader(d.fields)
+		if msg != "" {
+			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "a second header line that cannot be used: " + msg}
+		}
+		if d.Notice != nil {
+			d.Notice(fmt.Sprintf("%s:%d: a new header line; the rows after it are read with its columns (%s)", d.name, n, h.layout()))
+		}
+		d.hdr = h
+		return Record{}, false, nil
+	}
 	return d.row(n)
+}
+
+// isHeader reports whether the fields of a line after the header are a
+// header again (two exports joined into one file): they name the time and
+// tail columns, which no data row can hold as its time.
+func isHeader(fields [][]byte) bool {
+	var t, tail bool
+	for _, f := range fields {
+		t = t || bytes.EqualFold(f, []byte("time"))
+		tail = tail || bytes.EqualFold(f, []byte("tail"))
+	}
+	return t && tail
 }
 
 // split splits one line into d.fields by RFC 4180 rules, and is the one

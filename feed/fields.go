@@ -16,6 +16,12 @@ func badID(b []byte) string {
 	if len(b) > MaxIDBytes {
 		return "longer than " + strconv.Itoa(MaxIDBytes) + " bytes"
 	}
+	return badText(b)
+}
+
+// badText says why b cannot be shown as text, or "" when it can: a control
+// character or invalid UTF-8.
+func badText(b []byte) string {
 	for i := 0; i < len(b); {
 		r, size := utf8.DecodeRune(b[i:])
 		switch {

@@ -1,6 +1,10 @@
 package feed
 
 import (
+	"errors"
+	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -44,5 +48,36 @@ func TestHostileFields(t *testing.T) {
 		if recs, rejects, _, _ := readAll(t, "x.csv", row(ok, "DD-101 ü", "F1", good)); len(recs) != 1 {
 			t.Errorf("%s: %v", good, rejects)
 		}
+	}
+}
+
+// Two exports joined into one file, kg then lb: the second header starts a
+// new layout with a notice, so the lb rows are converted (they were read
+// as kg and entered the trends at −21 %). A second header that cannot be
+// used ends the file with its line named.
+func TestRepeatedHeader(t *testing.T) {
+	kg := "time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n2026-03-01T10:00:00Z,DD101,65000,35000,0.78,-54.3,2380\n"
+	lb := "time,tail,weight_lb,alt_ft,mach,sat_c,fuel_flow_lbph\n2026-03-01T11:00:00Z,DD101,143300,35000,0.78,-54.3,5247\n"
+	dir := t.TempDir()
+	p := filepath.Join(dir, "joined.csv")
+	os.WriteFile(p, []byte(kg+lb), 0o644)
+	var recs []Record
+	res := ReadFile(p, func(r Record) { recs = append(recs, r) }, nil)
+	if res.Err != nil || len(recs) != 2 || res.Stats.Rejected != 0 {
+		t.Fatalf("%+v, %d records", res, len(recs))
+	}
+	if w := recs[1].Snap.Weight; math.Abs(w-143300*0.45359237) > 0.01 {
+		t.Errorf("second block's weight %g kg, want 143300 lb in kg", w)
+	}
+	if ff := recs[1].Snap.FuelFlow * 3600; math.Abs(ff-5247*0.45359237) > 0.01 {
+		t.Errorf("second block's fuel flow %g kg/h, want 5247 lb/h in kg/h", ff)
+	}
+	if len(res.Notices) != 1 || !strings.Contains(res.Notices[0], "joined.csv:3: a new header line") || !strings.Contains(res.Notices[0], "weight_lb") {
+		t.Errorf("notices %q", res.Notices)
+	}
+	_, _, _, err := readAll(t, "bad.csv", kg+"time,tail,weight_kg\n"+"2026-03-01T11:00:00Z,DD101,65000\n")
+	var fe *FileError
+	if !errors.As(err, &fe) || fe.Line != 3 || !strings.Contains(err.Error(), "second header") {
+		t.Errorf("unusable second header: %v", err)
 	}
 }

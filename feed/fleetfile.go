@@ -69,6 +69,9 @@ func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, er
 		if strings.TrimSpace(tn) == "" || strings.TrimSpace(rel) == "" {
 			return nil, fmt.Errorf("%s: types: a type needs a name and a file", at("types."+tn))
 		}
+		if why := badID([]byte(tn)); why != "" {
+			return nil, fmt.Errorf("%s: types: the name %s %s", at("types."+tn), quoteField([]byte(tn)), why)
+		}
 		t, err := load(rel)
 		if err != nil {
 			return nil, fmt.Errorf("%s: types.%s: %w", at("types."+tn), tn, err)
@@ -93,6 +96,9 @@ func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, er
 			return nil, fmt.Errorf("%s: tail.type: missing (required) for tail %s", where, *ft.ID)
 		}
 		e.Tail, e.Type = strings.TrimSpace(*ft.ID), strings.TrimSpace(*ft.Type)
+		if why := badID([]byte(e.Tail)); why != "" {
+			return nil, fmt.Errorf("%s: tail.id: %s %s", where, quoteField([]byte(e.Tail)), why)
+		}
 		since, err := tomlTime(ft.Since)
 		if err != nil {
 			return nil, fmt.Errorf("%s: tail.since: %v", where, err)
@@ -108,6 +114,12 @@ func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, er
 			e.FuelFlowCorrectionPct = *ft.FFCorrPct
 		}
 		entries = append(entries, e)
+	}
+	if why := badText([]byte(f.Name)); why != "" || len(f.Name) > 200 {
+		if why == "" {
+			why = "longer than 200 bytes"
+		}
+		return nil, fmt.Errorf("%s: name: %s", at("name"), why)
 	}
 	r, err := model.NewRoster(f.Name, types, entries)
 	if err != nil {

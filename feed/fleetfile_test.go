@@ -65,6 +65,8 @@ func TestParseFleetErrors(t *testing.T) {
 		{"unknown key", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\ncolour = 1\n", "f.toml:6: tail.colour: unknown key"},
 		{"no tails", "[types]\nA = \"a.toml\"\n", "f.toml: tail: no [[tail]] entry"},
 		{"syntax", "[types\n", "f.toml:1:"},
+		{"escape in a tail id", "[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\\u001b[2J\"\ntype = \"A\"\n", "f.toml:3: tail.id: \"T\\x1b[2J\" holds a control character"},
+		{"escape in the name", "name = \"\\u0007\"\n[types]\nA = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"A\"\n", "f.toml:1: name: holds a control character"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

@@ -90,6 +90,7 @@ func (fl *Follower) restart() {
 	fl.off, fl.partial, fl.skip, fl.line = 0, fl.partial[:0], false, 0
 	fl.dec = NewDecoder(fl.Path)
 	fl.dec.CheckTail = fl.CheckTail
+	fl.dec.Notice = fl.Notice
 }
 
 // step does one round of work and reports whether it read anything.

@@ -120,11 +120,15 @@ func (r *Reader) Stats() Stats { return r.d.Stats() }
 // Unknown returns the header's ignored columns.
 func (r *Reader) Unknown() []string { return r.d.Unknown() }
 
+// maxNotices is how many notices a file's result keeps.
+const maxNotices = 20
+
 // FileResult is what reading one file gave.
 type FileResult struct {
 	Path    string
 	Stats   Stats
 	Unknown []string // ignored columns (one warning per file)
+	Notices []string // new header lines inside the file, at most maxNotices
 	Err     error    // a *FileError or I/O error: the file could not be read
 	Events  bool     // an events file, skipped (not an error)
 }
@@ -180,6 +184,13 @@ func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func
 	}
 	r := NewReader(src, path)
 	r.SetTailCheck(opt.CheckTail)
+	r.d.Notice = func(s string) {
+		if len(res.Notices) < maxNotices {
+			res.Notices = append(res.Notices, s)
+		} else if len(res.Notices) == maxNotices {
+			res.Notices = append(res.Notices, path+": more new header lines follow; not all are listed")
+		}
+	}
 	for {
 		rec, err := r.Next()
 		if err == nil {

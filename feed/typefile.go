@@ -138,6 +138,12 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 	if len(missing) > 0 {
 		return nil, fmt.Errorf("%s: %s: missing (required)", name, strings.Join(missing, ", "))
 	}
+	if why := badText([]byte(*f.Name)); why != "" || len(*f.Name) > 200 {
+		if why == "" {
+			why = "longer than 200 bytes"
+		}
+		return nil, fmt.Errorf("%s: name: %s", name, why)
+	}
 	t := &model.Type{
 		Name:           *f.Name,
 		WingArea:       *f.Wing.AreaM2,

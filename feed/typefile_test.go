@@ -66,6 +66,7 @@ func TestParseTypeErrors(t *testing.T) {
 		{"missing key", strings.Replace(demo, "cl_buffet = 0.85", "", 1), "x.toml: limits.cl_buffet: missing (required)"},
 		{"unknown key", strings.Replace(demo, "sweep_deg = 25.0", "sweep_deg = 25.0\nflap = 3", 1), "x.toml:23: wave.flap: unknown key"},
 		{"wrong type", strings.Replace(demo, "mmo = 0.82", `mmo = "fast"`, 1), "x.toml:31: limits.mmo: must be a number"},
+		{"escape in the name", strings.Replace(demo, `name = "DD-200`, `name = "\u001b]0;pwn\u0007DD-200`, 1), "x.toml: name: holds a control character"},
 		{"count not whole", strings.Replace(demo, "count = 2", "count = 2.5", 1), "engine.count: must be a whole number"},
 		{"two unknown keys, each with its line", strings.Replace(demo, "sweep_deg = 25.0", "sweep_deg = 25.0\nflap = 3\nslat = 1", 1), "x.toml:23: wave.flap: unknown key; x.toml:24: wave.slat: unknown key"},
 		{"syntax error", demo + "\n[limits\n", ":35: expected ']' to close table name"},

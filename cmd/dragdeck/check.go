@@ -103,10 +103,19 @@ func writeCheckSummary(w io.Writer, paths, files, failed int, st feed.Stats, byR
 	}
 }
 
-// warnUnknown prints one warning per file that has ignored columns.
+// warnUnknown prints one warning per file that has ignored columns (the
+// first ten named), and the file's notices (a new header line inside it).
 func warnUnknown(w io.Writer, res feed.FileResult) {
-	if len(res.Unknown) > 0 {
-		fmt.Fprintf(w, "dragdeck: %s: ignoring unknown column(s) %s\n", res.Path, strings.Join(res.Unknown, ", "))
+	if n := len(res.Unknown); n > 0 {
+		names := res.Unknown
+		more := ""
+		if n > 10 {
+			names, more = names[:10], fmt.Sprintf(" and %d more", n-10)
+		}
+		fmt.Fprintf(w, "dragdeck: %s: ignoring unknown column(s) %s%s\n", res.Path, strings.Join(names, ", "), more)
+	}
+	for _, s := range res.Notices {
+		fmt.Fprintf(w, "dragdeck: note: %s\n", s)
 	}
 }
 

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -85,5 +86,22 @@ func TestDemoCommand(t *testing.T) {
 		if code, _, _ := runArgs(args...); code != 2 {
 			t.Errorf("%v: exit %d, want 2", args, code)
 		}
+	}
+}
+
+// A header of 100,000 unknown columns gives one short warning (it was a
+// 730 KB line), and a hostile column name is quoted, not printed raw.
+func TestUnknownColumnsWarningCapped(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,\"x\x1b[2J\"")
+	for i := 0; i < 100000; i++ {
+		fmt.Fprintf(&b, ",x%d", i)
+	}
+	b.WriteString("\n")
+	p := filepath.Join(t.TempDir(), "wide.csv")
+	os.WriteFile(p, []byte(b.String()), 0o644)
+	_, _, errs := runArgs("check", p)
+	if len(errs) > 1000 || !strings.Contains(errs, "and 99991 more") || strings.Contains(errs, "\x1b") {
+		t.Errorf("warning of %d bytes:\n%.600s", len(errs), errs)
 	}
 }
