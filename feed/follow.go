@@ -32,7 +32,21 @@ type Follower struct {
 	line    int
 	waiting bool
 	buf     []byte
+	// head and mark are the first bytes of the file and the bytes just
+	// before off, as read: a file rewritten in place (truncated and grown
+	// again within one poll, or rewritten at the same size) no longer
+	// holds them, though its size says nothing.
+	head, mark []byte
+	scratch    []byte
 }
+
+// Sizes of the fingerprint and of one step's reading: a backlog is read in
+// batches of maxBatch, so that a cancel is seen between them.
+const (
+	headBytes = 512
+	markBytes = 64
+	maxBatch  = 4 << 20
+)
 
 // Stats returns the rows counted in the file now being read.
 func (fl *Follower) Stats() Stats {
@@ -88,6 +102,7 @@ func (fl *Follower) close() {
 // restart forgets what was read: the file is read again from its start.
 func (fl *Follower) restart() {
 	fl.off, fl.partial, fl.skip, fl.line = 0, fl.partial[:0], false, 0
+	fl.head, fl.mark = fl.head[:0], fl.mark[:0]
 	fl.dec = NewDecoder(fl.Path)
 	fl.dec.CheckTail = fl.CheckTail
 	fl.dec.Notice = fl.Notice
@@ -137,8 +152,44 @@ func (fl *Follower) step(emit func(Record) error, reject func(*RowError)) (bool,
 	case st.Size() < fl.off:
 		fl.Notice(fmt.Sprintf("%s: the file was truncated; starting over from its first line", fl.Path))
 		fl.restart()
+	case !fl.unchanged():
+		fl.Notice(fmt.Sprintf("%s: the file was rewritten in place; starting over from its first line", fl.Path))
+		fl.restart()
 	}
 	return fl.read(emit, reject, false)
+}
+
+// unchanged reports whether the bytes already read still stand where they
+// were: the file's first bytes and those just before the offset.
+func (fl *Follower) unchanged() bool {
+	same := func(want []byte, at int64) bool {
+		if len(want) == 0 {
+			return true
+		}
+		if cap(fl.scratch) < len(want) {
+			fl.scratch = make([]byte, headBytes)
+		}
+		got := fl.scratch[:len(want)]
+		n, err := fl.f.ReadAt(got, at)
+		return n == len(want) && (err == nil || err == io.EOF) && bytes.Equal(got, want)
+	}
+	return same(fl.head, 0) && same(fl.mark, fl.off-int64(len(fl.mark)))
+}
+
+// remember keeps the fingerprint of what has been read: data was read
+// from the file at offset from, and off is now past it.
+func (fl *Follower) remember(data []byte, from int64) {
+	if k := int64(len(fl.head)); k < headBytes && from <= k {
+		end := min(int64(len(data)), headBytes-from)
+		fl.head = append(fl.head[:from], data[:end]...)
+	}
+	if len(data) >= markBytes {
+		fl.mark = append(fl.mark[:0], data[len(data)-markBytes:]...)
+	} else {
+		keep := min(len(fl.mark), markBytes-len(data))
+		fl.mark = append(fl.mark[:0], fl.mark[len(fl.mark)-keep:]...)
+		fl.mark = append(fl.mark, data...)
+	}
 }
 
 // drain reads what is left of the open file, its last line even without a
@@ -154,11 +205,13 @@ func (fl *Follower) drain(emit func(Record) error, reject func(*RowError)) error
 // the decoder; at final, the unterminated rest is a line too.
 func (fl *Follower) read(emit func(Record) error, reject func(*RowError), final bool) (bool, error) {
 	progressed := false
-	for {
+	for batch := 0; final || batch < maxBatch; {
 		n, err := fl.f.ReadAt(fl.buf, fl.off)
 		if n > 0 {
 			progressed = true
+			fl.remember(fl.buf[:n], fl.off)
 			fl.off += int64(n)
+			batch += n
 			if err := fl.lines(fl.buf[:n], emit, reject); err != nil {
 				return progressed, err
 			}

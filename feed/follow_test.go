@@ -223,3 +223,98 @@ func BenchmarkFollowLatency(b *testing.B) {
 	b.ReportMetric(float64(total.Milliseconds())/float64(b.N), "ms-mean")
 	b.ReportMetric(float64(worst.Milliseconds()), "ms-worst")
 }
+
+// A file rewritten between two looks, truncated and grown past the old
+// size (100 rows were lost) or rewritten at the same size (10 rows), is
+// seen by its content, and read again from its first line with a notice.
+func TestFollowRewrittenInPlace(t *testing.T) {
+	rows := func(n int, tail string) string {
+		var b strings.Builder
+		b.WriteString(replayHeader)
+		for i := 0; i < n; i++ {
+			b.WriteString(row(i%60, tail))
+		}
+		return b.String()
+	}
+	cases := []struct {
+		name          string
+		before, after string
+		want          int // records after the rewrite
+	}{
+		{"truncated and regrown within one poll", rows(5, "DD101"), rows(105, "DD102"), 105},
+		{"rewritten at the same size", rows(10, "DD101"), rows(10, "DD109"), 10},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			p := writeFile(t, t.TempDir(), "live.csv", c.before)
+			var notices []string
+			fl := &Follower{Path: p, Notice: func(s string) { notices = append(notices, s) }, buf: make([]byte, 64<<10)}
+			var got []Record
+			emit := func(r Record) error { got = append(got, r); return nil }
+			for i := 0; i < 3; i++ {
+				if _, err := fl.step(emit, nil); err != nil {
+					t.Fatal(err)
+				}
+			}
+			got = got[:0]
+			// in place: the same file, opened for writing and truncated
+			if err := os.WriteFile(p, []byte(c.after), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			for i := 0; i < 3; i++ {
+				if _, err := fl.step(emit, nil); err != nil {
+					t.Fatal(err)
+				}
+			}
+			if len(got) != c.want || got[0].Line != 2 || got[0].Tail == "DD101" {
+				t.Fatalf("%d records after the rewrite (first %+v), want %d from line 2", len(got), got[0], c.want)
+			}
+			if !strings.Contains(strings.Join(notices, "\n"), "rewritten in place") {
+				t.Errorf("notices %q", notices)
+			}
+		})
+	}
+}
+
+// A backlog is read in batches: one step reads at most about maxBatch
+// bytes, so that Ctrl-C is seen between batches (a 1 GB file took 160 s
+// to stop).
+func TestFollowBacklogInBatches(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(replayHeader)
+	for b.Len() < 3*maxBatch {
+		b.WriteString(row(1, "DD101"))
+	}
+	p := writeFile(t, t.TempDir(), "big.csv", b.String())
+	fl := &Follower{Path: p, buf: make([]byte, 64<<10)}
+	steps := 0
+	for {
+		progressed, err := fl.step(func(Record) error { return nil }, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !progressed {
+			break
+		}
+		steps++
+		if fl.off < int64(b.Len()) && fl.off > int64(steps)*(maxBatch+64<<10) {
+			t.Fatalf("step %d read to %d: more than a batch", steps, fl.off)
+		}
+	}
+	if steps < 3 || fl.off != int64(b.Len()) {
+		t.Errorf("%d steps to read %d of %d bytes", steps, fl.off, b.Len())
+	}
+	// and Run stops on cancel in the middle of the backlog
+	ctx, cancel := context.WithCancel(context.Background())
+	n := 0
+	fl2 := &Follower{Path: p, Poll: time.Millisecond}
+	err := fl2.Run(ctx, func(Record) error {
+		if n++; n == 10 {
+			cancel()
+		}
+		return nil
+	}, nil)
+	if err != nil || fl2.off >= int64(b.Len()) {
+		t.Errorf("Run after cancel: %v, read %d of %d bytes", err, fl2.off, b.Len())
+	}
+}
