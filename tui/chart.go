@@ -174,3 +174,46 @@ func sparkline(vals []float64, width int, lo, hi float64) string {
 	}
 	return string(out)
 }
+
+// thin keeps at most about 2 × buckets of pts (in ascending x): per bucket
+// of equal x width, the lowest and the highest point, in x order. A chart
+// cannot show more than its dots anyway, and a long live flight would
+// otherwise cost a frame per thousand rows; the drawn shape is the same.
+func thin(pts [][2]float64, buckets int) [][2]float64 {
+	if buckets < 1 || len(pts) <= 2*buckets {
+		return pts
+	}
+	x0, x1 := pts[0][0], pts[len(pts)-1][0]
+	if !(x1 > x0) {
+		return pts
+	}
+	out := make([][2]float64, 0, 2*buckets)
+	lo, hi, cur := -1, -1, -1
+	flush := func() {
+		switch {
+		case lo < 0:
+		case lo == hi:
+			out = append(out, pts[lo])
+		case lo < hi:
+			out = append(out, pts[lo], pts[hi])
+		default:
+			out = append(out, pts[hi], pts[lo])
+		}
+	}
+	for i, p := range pts {
+		k := min(buckets-1, int(float64(buckets)*(p[0]-x0)/(x1-x0)))
+		if k != cur {
+			flush()
+			lo, hi, cur = i, i, k
+			continue
+		}
+		if p[1] < pts[lo][1] {
+			lo = i
+		}
+		if p[1] > pts[hi][1] {
+			hi = i
+		}
+	}
+	flush()
+	return out
+}

@@ -23,7 +23,38 @@ type (
 	liveNoticeMsg struct{ text string }
 	liveRejectMsg struct{ err *feed.RowError }
 	liveEndMsg    struct{ err error }
+	// liveBatchMsg is what arrived from a live file since the last
+	// frame: the screen takes it in one go, so that 10,000 rows a second
+	// cost one update per frame, not one per row.
+	liveBatchMsg struct {
+		recs    []feed.Record
+		notice  string         // the last notice, if any
+		reject  *feed.RowError // the last reject, if any
+		rejects int            // how many rows were rejected
+		end     *liveEndMsg    // the follower stopped
+	}
 )
+
+// maxLiveBatch bounds one batch, so that a backlog shows as it is read.
+const maxLiveBatch = 20000
+
+// add puts one live message into the batch; it reports whether the
+// follower has stopped.
+func (b *liveBatchMsg) add(msg tea.Msg) bool {
+	switch msg := msg.(type) {
+	case liveRecordMsg:
+		b.recs = append(b.recs, msg.rec)
+	case liveNoticeMsg:
+		b.notice = msg.text
+	case liveRejectMsg:
+		b.reject = msg.err
+		b.rejects++
+	case liveEndMsg:
+		b.end = &msg
+		return true
+	}
+	return false
+}
 
 type flightKeys struct {
 	Play, Faster, Slower, Step, Back, Start, End key.Binding
@@ -64,6 +95,7 @@ type flightScreen struct {
 	recs    []feed.Record // the whole replay, or what has arrived live
 	points  []model.Point // analysis of recs[:pos]
 	left    []string      // per point, why the trend leaves it out ("" if usable)
+	span    spanCache     // the current flight's snapshots, for pos
 	player  *feed.Player
 	pos     int // snapshots shown
 	playing bool
@@ -240,26 +272,28 @@ func (s *flightScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 			s.render()
 		}
 		return s, cmd
-	case liveRecordMsg:
+	case liveBatchMsg:
 		if !s.live {
 			return s, nil
 		}
-		s.recs = append(s.recs, msg.rec)
-		s.seek(len(s.recs))
-		return s, nil
-	case liveNoticeMsg:
-		s.notice = msg.text
-		s.render()
-		return s, nil
-	case liveRejectMsg:
-		s.notice = "rejected " + msg.err.Error()
-		s.render()
-		return s, nil
-	case liveEndMsg:
-		if msg.err != nil {
-			s.notice = "stopped: " + msg.err.Error()
+		switch {
+		case msg.reject != nil && msg.rejects > 1:
+			s.notice = fmt.Sprintf("rejected %d rows, the last %s", msg.rejects, msg.reject.Error())
+		case msg.reject != nil:
+			s.notice = "rejected " + msg.reject.Error()
 		}
-		s.render()
+		if msg.notice != "" {
+			s.notice = msg.notice
+		}
+		if msg.end != nil && msg.end.err != nil {
+			s.notice = "stopped: " + msg.end.err.Error()
+		}
+		if len(msg.recs) > 0 {
+			s.recs = append(s.recs, msg.recs...)
+			s.seek(len(s.recs)) // renders
+		} else {
+			s.render()
+		}
 		return s, nil
 	case tea.KeyMsg:
 		if s.live {
@@ -461,6 +495,44 @@ func (s *flightScreen) altLine(flown float64) string {
 // current snapshot, and the whole flight's last time when it is known (not
 // live). A replay of many flights or of a fleet thus charts one flight.
 func (s *flightScreen) flightSpan() (played []int, last time.Time) {
+	c := &s.span
+	if c.first == &s.recs[0] && c.n == len(s.recs) && c.pos == s.pos {
+		return c.played, c.last
+	}
+	if s.live && c.first == &s.recs[0] && c.pos > 0 && c.pos < s.pos {
+		// Live, the same records with more after them: extend the span
+		// forward while the flight goes on.
+		played, prev, ok := c.played, s.recs[c.played[len(c.played)-1]], true
+		for j := c.pos; j < s.pos && ok; j++ {
+			r := s.recs[j]
+			if r.Tail != prev.Tail {
+				continue
+			}
+			if ok = !model.NewFlight(prev.Flight, prev.Time, r.Flight, r.Time, s.cfg.FlightGap); ok {
+				played, prev = append(played, j), r
+			}
+		}
+		if ok && s.recs[s.pos-1].Tail == prev.Tail {
+			*c = spanCache{first: &s.recs[0], n: len(s.recs), pos: s.pos, played: played, last: s.recs[s.pos-1].Time}
+			return played, c.last
+		}
+	}
+	played, last = s.computeSpan()
+	*c = spanCache{first: &s.recs[0], n: len(s.recs), pos: s.pos, played: played, last: last}
+	return played, last
+}
+
+// spanCache keeps the flight span of one position, so that a frame does
+// not look through the whole replay again, and a live flight extends it.
+type spanCache struct {
+	first  *feed.Record // &recs[0] when computed: other records, other span
+	n, pos int
+	played []int
+	last   time.Time
+}
+
+// computeSpan finds the span of the current flight from scratch.
+func (s *flightScreen) computeSpan() (played []int, last time.Time) {
 	cur := s.recs[s.pos-1]
 	played = []int{s.pos - 1}
 	prev := cur
@@ -516,6 +588,7 @@ func (s *flightScreen) deviationChart(w, h int) string {
 		}
 	}
 	lo, hi := span(ys, 0.1, 0.5)
+	used, out = thin(used, 2*w), thin(out, 2*w) // a braille cell is 2 dots wide
 	maxX := math.Max(last.Sub(t0).Minutes(), 1)
 	spec := chartSpec{w: w, h: h, minX: 0, maxX: maxX, minY: lo, maxY: hi, axis: s.st.Muted,
 		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) + " min" }),

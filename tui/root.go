@@ -183,7 +183,23 @@ func tickProgress() tea.Cmd {
 
 func (m *Model) waitLive() tea.Cmd {
 	ch := m.live
-	return func() tea.Msg { return <-ch }
+	return func() tea.Msg {
+		var b liveBatchMsg
+		if b.add(<-ch) {
+			return b
+		}
+		for len(b.recs) < maxLiveBatch {
+			select {
+			case msg := <-ch:
+				if b.add(msg) {
+					return b
+				}
+			default:
+				return b
+			}
+		}
+		return b
+	}
 }
 
 // helpHeight is the number of lines the help takes.
@@ -289,12 +305,12 @@ func (m *Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case replayTickMsg:
 		_, cmd := m.flight.Update(msg)
 		return m, cmd
-	case liveRecordMsg, liveNoticeMsg, liveRejectMsg:
+	case liveBatchMsg:
 		m.flight.Update(msg)
+		if msg.end != nil {
+			return m, nil
+		}
 		return m, m.waitLive()
-	case liveEndMsg:
-		m.flight.Update(msg)
-		return m, nil
 	case tea.KeyMsg:
 		return m.key(msg)
 	}
