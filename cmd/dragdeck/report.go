@@ -248,17 +248,15 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	if err != nil {
 		return err
 	}
-	var rejOut io.Writer
+	var rejOut *atomicFile
 	if *rejects != "" {
-		if err := notAnInput(*rejects, files); err != nil {
+		if files, err = leaveOutOutput(e.stderr, *rejects, fs.Args(), files); err != nil {
 			return err
 		}
-		f, err := os.Create(*rejects)
-		if err != nil {
+		if rejOut, err = createAtomic(*rejects); err != nil {
 			return usageErrorf("--rejects: %v", err)
 		}
-		defer f.Close()
-		rejOut = f
+		defer rejOut.Abort() // a run that fails leaves the old file as it was
 	}
 	r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Events: evs, Config: c, Reject: func(r *feed.RowError) {
 		if rejOut != nil {
@@ -266,6 +264,11 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		}
 	}})
 	failed := reportFiles(e.stderr, "report", r)
+	if rejOut != nil {
+		if err := rejOut.Commit(); err != nil {
+			return usageErrorf("--rejects: %v", err)
+		}
+	}
 	if *plots != "" {
 		n, err := writePlots(*plots, r.Fleet, c)
 		if err != nil {
@@ -311,19 +314,32 @@ func reportFiles(w io.Writer, cmd string, r *pipeline.Result) int {
 	return failed
 }
 
-// notAnInput refuses an output path that is one of the input files, which
-// writing would destroy.
-func notAnInput(out string, inputs []string) error {
+// leaveOutOutput keeps the --rejects output out of the inputs. Named as an
+// input itself it is refused, since writing it would destroy it; found in
+// an input folder (the rejects file of an earlier run written beside the
+// snapshots) it is left out of the inputs with a note.
+func leaveOutOutput(stderr io.Writer, out string, args, inputs []string) ([]string, error) {
 	oi, err := os.Stat(out)
 	if err != nil {
-		return nil // does not exist yet: cannot be an input
+		return inputs, nil // does not exist yet: cannot be an input
 	}
-	for _, in := range inputs {
-		if ii, err := os.Stat(in); err == nil && os.SameFile(oi, ii) {
-			return usageErrorf("--rejects: %s is one of the input files; writing it would destroy it", out)
+	for _, a := range args {
+		if ai, err := os.Stat(a); err == nil && os.SameFile(oi, ai) {
+			return nil, usageErrorf("--rejects: %s is one of the input files; writing it would destroy it", out)
 		}
 	}
-	return nil
+	kept := inputs[:0:0]
+	for _, in := range inputs {
+		if ii, err := os.Stat(in); err == nil && os.SameFile(oi, ii) {
+			fmt.Fprintf(stderr, "dragdeck report: note: leaving out %s: it is the --rejects output\n", in)
+			continue
+		}
+		kept = append(kept, in)
+	}
+	if len(kept) == 0 {
+		return nil, usageErrorf("--rejects: %s is the only input file", out)
+	}
+	return kept, nil
 }
 
 func writeReportJSON(w io.Writer, r *pipeline.Result) error {
