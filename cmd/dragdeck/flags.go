@@ -7,6 +7,8 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"time"
 
@@ -99,8 +101,8 @@ func (f *flagSet) parse(args []string, stdout io.Writer) error {
 			value = args[i]
 		}
 		if err := f.Set(name, value); err != nil {
-			if kind := kindOf(fl); kind != "" {
-				return usageErrorf("--%s: %q is %s (see 'dragdeck %s --help')", name, value, kind, f.Name())
+			if kind := kindOf(fl, value, err); kind != "" {
+				return usageErrorf("--%s: %s is %s (see 'dragdeck %s --help')", name, shortQuote(value), kind, f.Name())
 			}
 			return usageErrorf("--%s: %v (see 'dragdeck %s --help')", name, err, f.Name())
 		}
@@ -117,23 +119,48 @@ func (f *flagSet) parse(args []string, stdout io.Writer) error {
 }
 
 // kindOf says what a flag's value is not, for an error message; "" for a
-// flag of dragdeck's own type, whose error says it.
-func kindOf(fl *flag.Flag) string {
+// flag of dragdeck's own type, whose error says it. A number or duration
+// of the right form that does not fit is "out of range", not "not a
+// number".
+func kindOf(fl *flag.Flag, value string, err error) string {
 	g, ok := fl.Value.(flag.Getter)
 	if !ok {
 		return ""
 	}
+	// the flag package turns strconv.ErrRange into its own "value out of range"
+	outOfRange := errors.Is(err, strconv.ErrRange) || strings.Contains(err.Error(), "out of range")
 	switch g.Get().(type) {
 	case float64:
+		if outOfRange {
+			return "out of range"
+		}
 		return "not a number"
 	case int, int64, uint, uint64:
+		if outOfRange {
+			return "out of range"
+		}
 		return "not a whole number"
 	case bool:
 		return "not true or false"
 	case time.Duration:
+		if durationForm.MatchString(value) {
+			return "too long (at most 2562047h, about 292 years)"
+		}
 		return "not a duration (like 5s, 2m or 1h30m)"
 	}
 	return ""
+}
+
+// durationForm is the form of a Go duration, for telling a duration too
+// long to hold from one written wrong.
+var durationForm = regexp.MustCompile(`^[-+]?([0-9]*(\.[0-9]*)?(ns|us|µs|ms|s|m|h))+$`)
+
+// shortQuote quotes a value for a message, cut to 40 bytes.
+func shortQuote(s string) string {
+	if len(s) > 40 {
+		return strconv.Quote(s[:40]) + "…"
+	}
+	return strconv.Quote(s)
 }
 
 // NArg, Arg and Args are the positional arguments, wherever they stood

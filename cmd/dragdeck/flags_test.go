@@ -26,6 +26,11 @@ func TestFlagParser(t *testing.T) {
 		{"not a whole number", []string{"--tails", "2.5"}, nil, `--tails: "2.5" is not a whole number`},
 		{"not a boolean", []string{"--json=maybe"}, nil, `--json: "maybe" is not true or false`},
 		{"not a duration", []string{"--wait", "soon"}, nil, `--wait: "soon" is not a duration`},
+		// right form, too big: not "not a number" (it said so of 9999999h)
+		{"duration too long", []string{"--wait", "9999999h"}, nil, `--wait: "9999999h" is too long`},
+		{"number out of range", []string{"--mach", "1e999"}, nil, `--mach: "1e999" is out of range`},
+		{"whole number out of range", []string{"--tails", "99999999999999999999"}, nil, `--tails: "99999999999999999999" is out of range`},
+		{"300 digits cut in the message", []string{"--mach", strings.Repeat("9", 300) + "x"}, nil, `"…`},
 		{"value missing", []string{"--mach"}, nil, "--mach: needs a value"},
 		{"unknown", []string{"--wing", "3"}, nil, "not defined: --wing"},
 		{"required missing", []string{}, nil, ""},

@@ -19,12 +19,15 @@ import (
 // reportJSON is the stable JSON of a fleet report; its field names are
 // used by scripts and do not change.
 type reportJSON struct {
-	Read     int            `json:"read"`
-	Rejected int            `json:"rejected"`
-	Fleet    fleetJSON      `json:"fleet"`
-	Tails    []tailJSON     `json:"tails"`
-	Caution  string         `json:"caution"`
-	Settings map[string]any `json:"settings"`
+	Read     int `json:"read"`
+	Rejected int `json:"rejected"`
+	// Duplicates are accepted rows that repeat a tail and time, counted
+	// once in the analysis.
+	Duplicates int            `json:"duplicates"`
+	Fleet      fleetJSON      `json:"fleet"`
+	Tails      []tailJSON     `json:"tails"`
+	Caution    string         `json:"caution"`
+	Settings   map[string]any `json:"settings"`
 }
 
 type fleetJSON struct {
@@ -311,6 +314,9 @@ func reportFiles(w io.Writer, cmd string, r *pipeline.Result) int {
 			fmt.Fprintf(w, "dragdeck %s: %v (skipped; the other files are read)\n", cmd, res.Err)
 		}
 	}
+	if r.Duplicates > 0 {
+		fmt.Fprintf(w, "dragdeck %s: note: %d snapshot(s) repeat a tail and time already read (a file given twice, or overlapping exports?); each tail and time counts once\n", cmd, r.Duplicates)
+	}
 	return failed
 }
 
@@ -344,7 +350,7 @@ func leaveOutOutput(stderr io.Writer, out string, args, inputs []string) ([]stri
 
 func writeReportJSON(w io.Writer, r *pipeline.Result) error {
 	f, c := r.Fleet, r.Config
-	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
+	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Duplicates: r.Duplicates, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
 		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last), Types: newTypesJSON(r)},
 		Settings: map[string]any{"type": r.Roster.Label(), "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}

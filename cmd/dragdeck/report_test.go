@@ -286,7 +286,7 @@ func TestReportSaysWhyNoLevel(t *testing.T) {
 	var b strings.Builder
 	b.WriteString("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n")
 	for d := 0; d < 40; d++ {
-		fmt.Fprintf(&b, "2026-03-%02dT10:00:00Z,ONE,F%d,65000,35000,0.78,-54,1200\n", 1+d%28, d)
+		fmt.Fprintf(&b, "2026-03-%02dT%02d:00:00Z,ONE,F%d,65000,35000,0.78,-54,1200\n", 1+d%28, 10+d/28, d)
 	}
 	p := filepath.Join(dir, "one-engine.csv")
 	os.WriteFile(p, []byte(b.String()), 0o644)
@@ -482,5 +482,36 @@ func TestWrapWords(t *testing.T) {
 				t.Fatalf("got %q, want %q", got, c.want)
 			}
 		})
+	}
+}
+
+// The same file given twice is counted once, with a note: it doubled every
+// tail's points without a word.
+func TestReportSameFileTwice(t *testing.T) {
+	dir := t.TempDir()
+	if code, _, errs := runArgs("demo", "--out", dir, "--tails", "4", "--days", "60", "--seed", "3"); code != 0 {
+		t.Fatal(errs)
+	}
+	f := filepath.Join(dir, demo.SnapshotFile)
+	fleet := filepath.Join(dir, demo.FleetFile)
+	_, once, _ := runArgs("report", "--fleet", fleet, "--format", "json", f)
+	code, twice, errs := runArgs("report", "--fleet", fleet, "--format", "json", f, f)
+	var a, b struct {
+		Read, Duplicates int
+		Tails            []struct {
+			Points int     `json:"points"`
+			Dev    float64 `json:"deviation_pct"`
+		}
+	}
+	if json.Unmarshal([]byte(once), &a) != nil || json.Unmarshal([]byte(twice), &b) != nil || code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	if b.Duplicates != a.Read-8 || b.Read != 2*a.Read || !strings.Contains(errs, "repeat a tail and time") {
+		t.Errorf("twice: read %d, duplicates %d (once: read %d, 8 broken rows); stderr %q", b.Read, b.Duplicates, a.Read, errs)
+	}
+	for i := range a.Tails {
+		if a.Tails[i].Points != b.Tails[i].Points || a.Tails[i].Dev != b.Tails[i].Dev {
+			t.Errorf("tail %d: once %+v, twice %+v", i, a.Tails[i], b.Tails[i])
+		}
 	}
 }

@@ -54,6 +54,10 @@ type Result struct {
 	Files       []feed.FileResult // one per path, in order
 	Stats       feed.Stats        // rows of all files
 	First, Last time.Time         // span of the accepted snapshots (zero if none)
+	// Duplicates counts the accepted snapshots that repeat a tail and time
+	// already read (the same file given twice, overlapping exports): each
+	// tail and time is analysed once.
+	Duplicates int
 
 	tailIdx, engineIdx map[string]int // place of each tail in Fleet.Tails and Engine.Tails
 }
@@ -302,6 +306,10 @@ func (r *Result) assess(in Input) {
 	sort.Strings(tails)
 	trends := make([]model.TailTrend, len(tails))
 	engine := make([]model.TailTrend, len(tails))
+	// Per tail, the points, engine points and records without repeats, and
+	// how many were dropped: put back into the maps after the workers.
+	pointsOf, engineOf := make([][]model.TrendPoint, len(tails)), make([][]model.TrendPoint, len(tails))
+	recordsOf, dups := make([][]feed.Record, len(tails)), make([]int, len(tails))
 	jobs := make(chan int)
 	var wg sync.WaitGroup
 	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
@@ -312,8 +320,11 @@ func (r *Result) assess(in Input) {
 				tail := tails[i]
 				pts := r.Points[tail]
 				sort.SliceStable(pts, func(a, b int) bool { return pts[a].Time.Before(pts[b].Time) })
+				pts, dups[i] = dedupe(pts, func(p model.TrendPoint) time.Time { return p.Time })
+				pointsOf[i] = pts
 				if recs := r.Records[tail]; recs != nil {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
+					recordsOf[i], _ = dedupe(recs, func(r feed.Record) time.Time { return r.Time })
 				}
 				af, en := model.SplitEvents(in.Events[tail])
 				af = append(af, r.Roster.Changes(tail)...)
@@ -325,6 +336,8 @@ func (r *Result) assess(in Input) {
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
 				if ep := r.EnginePoints[tail]; len(ep) > 0 {
 					sort.SliceStable(ep, func(a, b int) bool { return ep[a].Time.Before(ep[b].Time) })
+					ep, _ = dedupe(ep, func(p model.TrendPoint) time.Time { return p.Time })
+					engineOf[i] = ep
 					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
@@ -336,6 +349,16 @@ func (r *Result) assess(in Input) {
 	}
 	close(jobs)
 	wg.Wait()
+	for i, tail := range tails {
+		r.Points[tail] = pointsOf[i]
+		if engineOf[i] != nil {
+			r.EnginePoints[tail] = engineOf[i]
+		}
+		if recordsOf[i] != nil {
+			r.Records[tail] = recordsOf[i]
+		}
+		r.Duplicates += dups[i]
+	}
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
@@ -345,4 +368,21 @@ func (r *Result) assess(in Input) {
 	}
 	r.Engine = model.AssessFleet(withEngine, in.Config.EngineSeries())
 	r.tailIdx, r.engineIdx = index(r.Fleet.Tails), index(r.Engine.Tails)
+}
+
+// dedupe drops from s, in time order, each element whose time equals the
+// one before it (one tail's snapshots: a repeat of a tail and time), and
+// returns what is left and how many were dropped.
+func dedupe[T any](s []T, at func(T) time.Time) ([]T, int) {
+	if len(s) < 2 {
+		return s, 0
+	}
+	k := 1
+	for i := 1; i < len(s); i++ {
+		if !at(s[i]).Equal(at(s[k-1])) {
+			s[k] = s[i]
+			k++
+		}
+	}
+	return s[:k], len(s) - k
 }
