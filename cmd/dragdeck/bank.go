@@ -12,11 +12,11 @@ import (
 // bankJSON is one row of the stable bank-table JSON; its field names are
 // used by scripts and do not change.
 type bankJSON struct {
-	BankDeg                float64 `json:"bank_deg"`
-	LoadFactor             float64 `json:"load_factor"`
-	InducedDragIncreasePct float64 `json:"induced_drag_increase_pct"`
-	TotalDragIncreasePct   float64 `json:"total_drag_increase_pct"`
-	FuelFlowIncreaseKgph   float64 `json:"fuel_flow_increase_kgph"`
+	BankDeg                finite `json:"bank_deg"`
+	LoadFactor             finite `json:"load_factor"`
+	InducedDragIncreasePct finite `json:"induced_drag_increase_pct"`
+	TotalDragIncreasePct   finite `json:"total_drag_increase_pct"`
+	FuelFlowIncreaseKgph   finite `json:"fuel_flow_increase_kgph"`
 }
 
 func runBank(e *env, args []string) error {
@@ -57,11 +57,11 @@ not kept) are marked "! beyond buffet".`,
 		out := make([]bankJSON, len(rows))
 		for i, r := range rows {
 			out[i] = bankJSON{
-				BankDeg:                degrees(r.Bank),
-				LoadFactor:             r.LoadFactor,
-				InducedDragIncreasePct: r.InducedIncreasePct,
-				TotalDragIncreasePct:   r.TotalIncreasePct,
-				FuelFlowIncreaseKgph:   r.ExtraFuelFlow * model.Hour,
+				BankDeg:                finite(degrees(r.Bank)),
+				LoadFactor:             finite(r.LoadFactor),
+				InducedDragIncreasePct: finite(r.InducedIncreasePct),
+				TotalDragIncreasePct:   finite(r.TotalIncreasePct),
+				FuelFlowIncreaseKgph:   finite(r.ExtraFuelFlow * model.Hour),
 			}
 		}
 		return writeJSON(e.stdout, out)

@@ -14,30 +14,33 @@ import (
 // pointJSON is the stable JSON of one analysed snapshot; its field names
 // are used by scripts and do not change.
 type pointJSON struct {
-	CL                   float64 `json:"cl"`
-	CDMeasured           float64 `json:"cd_measured"`
-	CDBaseline           float64 `json:"cd_baseline"`
-	CDInduced            float64 `json:"cd_induced"`
-	CDWave               float64 `json:"cd_wave"`
-	CDParasiteBaseline   float64 `json:"cd_parasite_baseline"`
-	CDParasiteMeasured   float64 `json:"cd_parasite_measured"`
-	ExcessDragCounts     float64 `json:"excess_drag_counts"`
-	DragDeviationPct     float64 `json:"drag_deviation_pct"`
-	FuelFlowExpectedKgph float64 `json:"fuel_flow_expected_kgph"`
-	FuelFlowDeviationPct float64 `json:"fuel_flow_deviation_pct"`
-	ThrustN              float64 `json:"thrust_n"`
-	DragN                float64 `json:"drag_n"`
-	LoadFactor           float64 `json:"load_factor"`
-	TASKt                float64 `json:"tas_kt"`
-	ISADevC              float64 `json:"isa_dev_c"`
-	Delta                float64 `json:"delta"`
-	Theta                float64 `json:"theta"`
-	QPa                  float64 `json:"q_pa"`
+	CL                   finite `json:"cl"`
+	CDMeasured           finite `json:"cd_measured"`
+	CDBaseline           finite `json:"cd_baseline"`
+	CDInduced            finite `json:"cd_induced"`
+	CDWave               finite `json:"cd_wave"`
+	CDParasiteBaseline   finite `json:"cd_parasite_baseline"`
+	CDParasiteMeasured   finite `json:"cd_parasite_measured"`
+	ExcessDragCounts     finite `json:"excess_drag_counts"`
+	DragDeviationPct     finite `json:"drag_deviation_pct"`
+	FuelFlowExpectedKgph finite `json:"fuel_flow_expected_kgph"`
+	FuelFlowDeviationPct finite `json:"fuel_flow_deviation_pct"`
+	ThrustN              finite `json:"thrust_n"`
+	DragN                finite `json:"drag_n"`
+	LoadFactor           finite `json:"load_factor"`
+	TASKt                finite `json:"tas_kt"`
+	ISADevC              finite `json:"isa_dev_c"`
+	Delta                finite `json:"delta"`
+	Theta                finite `json:"theta"`
+	QPa                  finite `json:"q_pa"`
 	// ThrustSource is "fan speed" or "fuel flow"; with fuel flow the drag
 	// includes engine effects and the engine deviation is null.
 	ThrustSource       string   `json:"thrust_source"`
 	N1CorrectedPct     *float64 `json:"n1_corrected_pct"`
 	EngineDeviationPct *float64 `json:"engine_deviation_pct"`
+	// NonFinite names the fields written as null because the analysis
+	// gave no finite value for them (absent when every value is finite).
+	NonFinite []string `json:"non_finite,omitempty"`
 }
 
 // The thrust sources, as the JSON and CSV name them.
@@ -55,17 +58,24 @@ func thrustSource(p model.Point) string {
 }
 
 func newPointJSON(p model.Point) pointJSON {
-	return pointJSON{
-		CL: p.CL, CDMeasured: p.CDMeasured, CDBaseline: p.CDBaseline,
-		CDInduced: p.CDInduced, CDWave: p.CDWave,
-		CDParasiteBaseline: p.CDParasiteBaseline, CDParasiteMeasured: p.CDParasiteMeasured,
-		ExcessDragCounts: p.ExcessCounts, DragDeviationPct: p.DragDevPct,
-		FuelFlowExpectedKgph: p.FuelFlowExpected * model.Hour, FuelFlowDeviationPct: p.FuelFlowDevPct,
-		ThrustN: p.Thrust, DragN: p.Drag, LoadFactor: p.LoadFactor,
-		TASKt: p.TAS / model.Knot, ISADevC: p.ISADev,
-		Delta: p.Delta, Theta: p.Theta, QPa: p.Q,
+	j := pointJSON{
+		CL: finite(p.CL), CDMeasured: finite(p.CDMeasured), CDBaseline: finite(p.CDBaseline),
+		CDInduced: finite(p.CDInduced), CDWave: finite(p.CDWave),
+		CDParasiteBaseline: finite(p.CDParasiteBaseline), CDParasiteMeasured: finite(p.CDParasiteMeasured),
+		ExcessDragCounts: finite(p.ExcessCounts), DragDeviationPct: finite(p.DragDevPct),
+		FuelFlowExpectedKgph: finite(p.FuelFlowExpected * model.Hour), FuelFlowDeviationPct: finite(p.FuelFlowDevPct),
+		ThrustN: finite(p.Thrust), DragN: finite(p.Drag), LoadFactor: finite(p.LoadFactor),
+		TASKt: finite(p.TAS / model.Knot), ISADevC: finite(p.ISADev),
+		Delta: finite(p.Delta), Theta: finite(p.Theta), QPa: finite(p.Q),
 		ThrustSource: thrustSource(p), N1CorrectedPct: num(p.N1Corrected), EngineDeviationPct: num(p.EngineDevPct),
 	}
+	j.NonFinite = nonFinite(map[string]float64{"cl": p.CL, "cd_measured": p.CDMeasured, "cd_baseline": p.CDBaseline,
+		"cd_induced": p.CDInduced, "cd_wave": p.CDWave, "cd_parasite_baseline": p.CDParasiteBaseline,
+		"cd_parasite_measured": p.CDParasiteMeasured, "excess_drag_counts": p.ExcessCounts, "drag_deviation_pct": p.DragDevPct,
+		"fuel_flow_expected_kgph": p.FuelFlowExpected, "fuel_flow_deviation_pct": p.FuelFlowDevPct, "thrust_n": p.Thrust,
+		"drag_n": p.Drag, "load_factor": p.LoadFactor, "tas_kt": p.TAS, "isa_dev_c": p.ISADev, "delta": p.Delta,
+		"theta": p.Theta, "q_pa": p.Q})
+	return j
 }
 
 func runPoint(e *env, args []string) error {

@@ -118,16 +118,16 @@ func newSeriesJSON(a model.TailAssessment) seriesJSON {
 func stepsJSON(steps []model.Step) []stepJSON {
 	out := []stepJSON{}
 	for _, s := range steps {
-		out = append(out, stepJSON{Date: s.Time.UTC().Format(time.DateOnly), SizePct: s.SizePct, SEPct: s.SE, Event: eventText(s.Event)})
+		out = append(out, stepJSON{Date: s.Time.UTC().Format(time.DateOnly), SizePct: finite(s.SizePct), SEPct: finite(s.SE), Event: eventText(s.Event)})
 	}
 	return out
 }
 
 type stepJSON struct {
-	Date    string  `json:"date"`
-	SizePct float64 `json:"size_pct"`
-	SEPct   float64 `json:"se_pct"`
-	Event   string  `json:"event,omitempty"`
+	Date    string `json:"date"`
+	SizePct finite `json:"size_pct"`
+	SEPct   finite `json:"se_pct"`
+	Event   string `json:"event,omitempty"`
 }
 
 // num turns NaN into a JSON null.

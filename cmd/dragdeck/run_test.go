@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"reflect"
 	"sort"
 	"strings"
 	"testing"
@@ -144,10 +145,10 @@ func TestPointJSON(t *testing.T) {
 		FuelFlow: feed.KgPerSFromKgPerH(2400), Bank: feed.RadFromDeg(10), VS: feed.MPerSFromFtPerMin(100),
 		Accel: feed.MPerS2FromKtPerMin(0.5),
 	})
-	if want := newPointJSON(p); got != want {
+	if want := newPointJSON(p); !reflect.DeepEqual(got, want) {
 		t.Errorf("JSON %+v\nwant  %+v", got, want)
 	}
-	if math.Abs(got.LoadFactor-1/math.Cos(10*math.Pi/180)) > 1e-12 || math.Abs(got.TASKt-p.TAS/model.Knot) > 1e-9 {
+	if math.Abs(float64(got.LoadFactor)-1/math.Cos(10*math.Pi/180)) > 1e-12 || math.Abs(float64(got.TASKt)-p.TAS/model.Knot) > 1e-9 {
 		t.Errorf("load factor %g, TAS %g kt", got.LoadFactor, got.TASKt)
 	}
 }
@@ -164,7 +165,7 @@ func TestSpeedJSON(t *testing.T) {
 		t.Fatal(err)
 	}
 	o := model.CruiseOptimum(feed.DemoType(), 65000, 35000*model.Foot, 0, 20.0/60, 25*model.DragCount)
-	if math.Abs(j.MachEcon-o.Econ.Mach) > 1e-12 || math.Abs(j.OptimumAltFt-o.OptimumAltitude/model.Foot) > 1e-6 {
+	if math.Abs(float64(j.MachEcon)-o.Econ.Mach) > 1e-12 || math.Abs(float64(j.OptimumAltFt)-o.OptimumAltitude/model.Foot) > 1e-6 {
 		t.Errorf("JSON %+v does not match the model %+v", j, o)
 	}
 	if j.Baseline == nil || j.Baseline.SRMaxNmPerKg <= j.SRMaxNmPerKg {

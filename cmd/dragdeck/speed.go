@@ -13,16 +13,16 @@ import (
 // speedJSON is the stable JSON of a cruise optimum , for the
 // polar asked for (the baseline plus --excess-counts).
 type speedJSON struct {
-	MachMinDrag      float64 `json:"mach_min_drag"`
-	MachMaxRange     float64 `json:"mach_max_range"`
-	MachLongRange    float64 `json:"mach_long_range"`
-	MachEcon         float64 `json:"mach_econ"`
-	SRMaxNmPerKg     float64 `json:"sr_max_nm_per_kg"`
-	OptimumAltFt     float64 `json:"optimum_alt_ft"`
-	MaxAltFt         float64 `json:"max_alt_ft"`
-	MaxAltLimit      string  `json:"max_alt_limit"`
-	FuelFlowMaxRange float64 `json:"fuel_flow_max_range_kgph"`
-	ExcessDragCounts float64 `json:"excess_drag_counts"`
+	MachMinDrag      finite `json:"mach_min_drag"`
+	MachMaxRange     finite `json:"mach_max_range"`
+	MachLongRange    finite `json:"mach_long_range"`
+	MachEcon         finite `json:"mach_econ"`
+	SRMaxNmPerKg     finite `json:"sr_max_nm_per_kg"`
+	OptimumAltFt     finite `json:"optimum_alt_ft"`
+	MaxAltFt         finite `json:"max_alt_ft"`
+	MaxAltLimit      string `json:"max_alt_limit"`
+	FuelFlowMaxRange finite `json:"fuel_flow_max_range_kgph"`
+	ExcessDragCounts finite `json:"excess_drag_counts"`
 	// Baseline is the same for the type's baseline polar, given when
 	// --excess-counts is not zero.
 	Baseline *speedJSON `json:"baseline,omitempty"`
@@ -30,16 +30,16 @@ type speedJSON struct {
 
 func newSpeedJSON(o model.Optimum, counts float64) *speedJSON {
 	return &speedJSON{
-		MachMinDrag:      o.MinDrag.Mach,
-		MachMaxRange:     o.MaxRange.Mach,
-		MachLongRange:    o.LongRange.Mach,
-		MachEcon:         o.Econ.Mach,
-		SRMaxNmPerKg:     o.MaxRange.SR / model.NauticalMile,
-		OptimumAltFt:     o.OptimumAltitude / model.Foot,
-		MaxAltFt:         o.MaxAltitude / model.Foot,
+		MachMinDrag:      finite(o.MinDrag.Mach),
+		MachMaxRange:     finite(o.MaxRange.Mach),
+		MachLongRange:    finite(o.LongRange.Mach),
+		MachEcon:         finite(o.Econ.Mach),
+		SRMaxNmPerKg:     finite(o.MaxRange.SR / model.NauticalMile),
+		OptimumAltFt:     finite(o.OptimumAltitude / model.Foot),
+		MaxAltFt:         finite(o.MaxAltitude / model.Foot),
 		MaxAltLimit:      string(o.MaxAltLimit),
-		FuelFlowMaxRange: o.MaxRange.FuelFlow * model.Hour,
-		ExcessDragCounts: counts,
+		FuelFlowMaxRange: finite(o.MaxRange.FuelFlow * model.Hour),
+		ExcessDragCounts: finite(counts),
 	}
 }
 
