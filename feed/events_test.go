@@ -21,6 +21,7 @@ func TestReadEvents(t *testing.T) {
 		{"missing kind", "time,tail,note\n", "missing required column kind", 0},
 		{"bad time", "time,tail,kind\nyesterday,DD101,wash\n", "e.csv:2: time:", 0},
 		{"escape in a tail", "time,tail,kind\n2026-03-01T05:00:00Z,DD\x1b[2J,wash\n", "e.csv:2: tail: holds a control character", 0},
+		{"escape in a note, made plain", "time,tail,kind,note\n2026-03-01T05:00:00-05:00,DD101,wash\x07,\"seal\x1b[2J \xff\"\n", "", 1},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -40,6 +41,9 @@ func TestReadEvents(t *testing.T) {
 			}
 			if got := evs["DD101"][0].Time; got.Location() != time.UTC || got.Hour() != 10 {
 				t.Errorf("event time %v, want 10:00 UTC", got)
+			}
+			if e := evs["DD101"][0]; badText([]byte(e.Kind+e.Note)) != "" {
+				t.Errorf("event text not plain: %q %q", e.Kind, e.Note)
 			}
 		})
 	}

@@ -2,6 +2,7 @@ package feed
 
 import (
 	"strconv"
+	"strings"
 	"unicode/utf8"
 )
 
@@ -84,4 +85,19 @@ func quoteField(b []byte) string {
 		return strconv.Quote(string(b[:cut])) + "…"
 	}
 	return strconv.Quote(string(b))
+}
+
+// plainText is free text (an event's kind or note) with each control
+// character made a space and invalid UTF-8 made U+FFFD, so that it can be
+// printed to a terminal or into a table as it is.
+func plainText(s string) string {
+	if badText([]byte(s)) == "" {
+		return s
+	}
+	return strings.Map(func(r rune) rune {
+		if r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0 {
+			return ' '
+		}
+		return r
+	}, strings.ToValidUTF8(s, "\uFFFD"))
 }
