@@ -9,7 +9,6 @@ import (
 	"time"
 
 	"github.com/pelletier/go-toml/v2"
-	"github.com/pelletier/go-toml/v2/unstable"
 
 	"dragdeck/model"
 )
@@ -20,6 +19,9 @@ type fleetFile struct {
 	Types map[string]string `toml:"types"` // type name -> type file, relative to the fleet file
 	Tail  []fleetTail       `toml:"tail"`
 }
+
+// fleetSchema is the keys a fleet file may hold.
+var fleetSchema = newTOMLSchema(fleetFile{})
 
 type fleetTail struct {
 	ID          *string  `toml:"id"`
@@ -52,12 +54,14 @@ func LoadFleet(path string) (*model.Roster, error) {
 // as for type files.
 func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, error)) (*model.Roster, error) {
 	var f fleetFile
-	dec := toml.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&f); err != nil {
+	if err := toml.NewDecoder(bytes.NewReader(data)).Decode(&f); err != nil {
 		return nil, tomlError(name, err, nil)
 	}
-	lines := keyLines(data)
+	doc := scanTOML(data)
+	if err := doc.unknown(name, fleetSchema); err != nil {
+		return nil, err
+	}
+	lines := doc.lines()
 	at := func(key string) string {
 		if l, ok := lines[key]; ok {
 			return fmt.Sprintf("%s:%d", name, l)
@@ -78,7 +82,7 @@ func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, er
 		}
 		types[tn] = t
 	}
-	tailLines := arrayTableLines(data, "tail")
+	tailLines := doc.arrays["tail"]
 	entries := make([]model.RosterEntry, 0, len(f.Tail))
 	for i, ft := range f.Tail {
 		e := model.RosterEntry{}
@@ -201,32 +205,6 @@ func keyText(parts []string) string {
 	return k
 }
 
-// arrayTableLines returns the 1-based line of each [[key]] header of a
-// TOML document, in order.
-func arrayTableLines(data []byte, key string) []int {
-	var out []int
-	var p unstable.Parser
-	p.Reset(data)
-	for p.NextExpression() {
-		e := p.Expression()
-		if e.Kind != unstable.ArrayTable {
-			continue
-		}
-		var k []string
-		line := 0
-		for it := e.Key(); it.Next(); {
-			n := it.Node()
-			k = append(k, string(n.Data))
-			if line == 0 && n.Raw.Length > 0 {
-				line = p.Shape(n.Raw).Start.Line
-			}
-		}
-		if strings.Join(k, ".") == key {
-			out = append(out, line)
-		}
-	}
-	return out
-}
 
 // RosterCheck is the reader's tail check of a roster: a snapshot of a tail
 // that has no entry in force at its time is rejected with the roster's

@@ -10,7 +10,6 @@ import (
 	"strings"
 
 	"github.com/pelletier/go-toml/v2"
-	"github.com/pelletier/go-toml/v2/unstable"
 
 	"dragdeck/model"
 )
@@ -85,6 +84,9 @@ type typeFile struct {
 	} `toml:"thrust"`
 }
 
+// typeSchema is the keys a type file may hold.
+var typeSchema = newTOMLSchema(typeFile{})
+
 // typeKeyKinds is what each key of a type file holds, for the error when a
 // value cannot be decoded into it.
 var typeKeyKinds = map[string]string{
@@ -106,12 +108,14 @@ var typeKeyKinds = map[string]string{
 // values that fail validation come from the same library's parser.
 func ParseType(name string, data []byte) (*model.Type, error) {
 	var f typeFile
-	dec := toml.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&f); err != nil {
+	if err := toml.NewDecoder(bytes.NewReader(data)).Decode(&f); err != nil {
 		return nil, tomlError(name, err, typeKeyKinds)
 	}
-	lines := keyLines(data)
+	doc := scanTOML(data)
+	if err := doc.unknown(name, typeSchema); err != nil {
+		return nil, err
+	}
+	lines := doc.lines()
 	at := func(key string) string {
 		if l, ok := lines[key]; ok {
 			return fmt.Sprintf("%s:%d", name, l)
@@ -200,39 +204,6 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 	return t, nil
 }
 
-// keyLines maps each dotted key of a TOML document to the 1-based line of
-// its value, from go-toml's own parser, for error messages. The document
-// has already been decoded, so it parses.
-func keyLines(data []byte) map[string]int {
-	out := map[string]int{}
-	var p unstable.Parser
-	p.Reset(data)
-	var table []string
-	for p.NextExpression() {
-		e := p.Expression()
-		var key []string
-		keyLine := 0
-		for it := e.Key(); it.Next(); {
-			n := it.Node()
-			key = append(key, string(n.Data))
-			if keyLine == 0 && n.Raw.Length > 0 {
-				keyLine = p.Shape(n.Raw).Start.Line
-			}
-		}
-		switch e.Kind {
-		case unstable.Table, unstable.ArrayTable:
-			table = key
-		case unstable.KeyValue:
-			full := strings.Join(append(append([]string{}, table...), key...), ".")
-			if v := e.Value(); v != nil && v.Raw.Length > 0 {
-				out[full] = p.Shape(v.Raw).Start.Line
-			} else if keyLine > 0 { // arrays and inline tables: the key's line
-				out[full] = keyLine
-			}
-		}
-	}
-	return out
-}
 
 // FormatType writes t as a type file that ParseType reads back to the same
 // values.
