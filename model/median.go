@@ -6,18 +6,25 @@ import (
 )
 
 // median returns the median of v (NaN for none), the average of the middle
-// two for an even count; it sorts v in place. (gonum's stat.Quantile gives
-// the lower middle value for an even count, so it is not used here.)
+// two for an even count; it reorders v. The middle values are found by
+// selection (selectK), not by sorting, with the same result. (gonum's
+// stat.Quantile gives the lower middle value for an even count, so it is
+// not used here.)
 func median(v []float64) float64 {
-	if len(v) == 0 {
+	n := len(v)
+	if n == 0 {
 		return math.NaN()
 	}
-	sort.Float64s(v)
-	n := len(v)
-	if n%2 == 1 {
-		return v[n/2]
+	if n <= 32 || hasNaN(v) {
+		sort.Float64s(v)
+		return sortedMedian(v)
 	}
-	return 0.5 * (v[n/2-1] + v[n/2])
+	k := n / 2
+	selectK(v, k)
+	if n%2 == 1 {
+		return v[k]
+	}
+	return 0.5 * (maxOf(v[:k]) + v[k])
 }
 
 // Median returns the median of v without changing v (NaN for none); the
@@ -27,13 +34,28 @@ func Median(v []float64) float64 {
 }
 
 // RollingMedian returns, for each i, the median of v over the window
-// [i − half, i + half] clipped to the ends of v.
+// [i − half, i + half] clipped to the ends of v. The window is kept sorted
+// as it slides (slidingWindow).
 func RollingMedian(v []float64, half int) []float64 {
 	out := make([]float64, len(v))
-	buf := make([]float64, 0, 2*half+1)
+	if hasNaN(v) { // a NaN has no place in a sorted window: each window anew
+		buf := make([]float64, 0, 2*half+1)
+		for i := range v {
+			buf = append(buf[:0], v[max(0, i-half):min(len(v), i+half+1)]...)
+			out[i] = median(buf)
+		}
+		return out
+	}
+	w := slidingWindow{sorted: make([]float64, 0, 2*half+2)}
+	lo, hi := 0, 0 // the window is v[lo:hi]
 	for i := range v {
-		buf = append(buf[:0], v[max(0, i-half):min(len(v), i+half+1)]...)
-		out[i] = median(buf)
+		for ; hi < min(len(v), i+half+1); hi++ {
+			w.insert(v[hi])
+		}
+		for ; lo < max(0, i-half); lo++ {
+			w.remove(v[lo])
+		}
+		out[i] = sortedMedian(w.sorted)
 	}
 	return out
 }

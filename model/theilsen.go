@@ -41,20 +41,42 @@ func TheilSen(x, y []float64, conf float64) Slope {
 	if N == 0 {
 		return s
 	}
-	sort.Float64s(slopes)
-	if N%2 == 1 {
-		s.Slope = slopes[N/2]
-	} else {
-		s.Slope = 0.5 * (slopes[N/2-1] + slopes[N/2])
-	}
 	z := distuv.UnitNormal.Quantile(0.5 + conf/2)
 	fn := float64(n)
 	c := z * math.Sqrt(fn*(fn-1)*(2*fn+5)/18)
-	lo := int(math.Floor((float64(N)-c)/2)) - 1 // 0-based
-	hi := int(math.Ceil((float64(N) + c) / 2))  // 0-based of the (…+1)-th
-	s.Lo = slopes[max(lo, 0)]
-	s.Hi = slopes[min(hi, N-1)]
-	res := make([]float64, n)
+	lo := max(int(math.Floor((float64(N)-c)/2))-1, 0) // 0-based
+	hi := min(int(math.Ceil((float64(N)+c)/2)), N-1)  // 0-based of the (…+1)-th
+	// The three order statistics by selection, each within the part the
+	// one before left (the same values a full sort gives, in linear time).
+	if hasNaN(slopes) {
+		sort.Float64s(slopes)
+		s.Slope, s.Lo, s.Hi = sortedMedian(slopes), slopes[lo], slopes[hi]
+		return s.withIntercept(x, y)
+	}
+	k := N / 2
+	selectK(slopes, k)
+	s.Slope = slopes[k]
+	if N%2 == 0 {
+		s.Slope = 0.5 * (maxOf(slopes[:k]) + slopes[k])
+	}
+	switch {
+	case lo < k:
+		s.Lo = orderStat(slopes[:k], lo)
+	default:
+		s.Lo = slopes[lo] // lo == k
+	}
+	switch {
+	case hi > k:
+		s.Hi = orderStat(slopes[k+1:], hi-k-1)
+	default:
+		s.Hi = slopes[hi]
+	}
+	return s.withIntercept(x, y)
+}
+
+// withIntercept sets Sen's intercept, the median of y − slope·x.
+func (s Slope) withIntercept(x, y []float64) Slope {
+	res := make([]float64, len(x))
 	for i := range x {
 		res[i] = y[i] - s.Slope*x[i]
 	}

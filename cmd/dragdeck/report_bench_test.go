@@ -1,0 +1,66 @@
+package main
+
+import (
+	"context"
+	"io"
+	"os"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"testing"
+	"time"
+
+	"dragdeck/feed/demo"
+)
+
+// benchSnapshots returns a snapshot file of about 1 million rows shaped like
+// an airline's export (300 tails of about 3,300 snapshots each), made once
+// with the demo in a temporary folder, or the file DRAGDECK_BENCH_CSV names
+// (for 10 million: dragdeck demo --out DIR --tails 3000 --days 870 --type
+// feed/demo_type.toml).
+func benchSnapshots(b *testing.B) string {
+	b.Helper()
+	if p := os.Getenv("DRAGDECK_BENCH_CSV"); p != "" {
+		return p
+	}
+	dir := b.TempDir()
+	if _, err := demo.Write(dir, demo.Config{Tails: 300, Days: 870, Seed: 13}); err != nil {
+		b.Fatal(err)
+	}
+	return filepath.Join(dir, demo.SnapshotFile)
+}
+
+// BenchmarkReport1M is the whole 'report --format json' on about 1 million
+// snapshots: rows/s and the heap in use at its peak (MB, from the runtime;
+// the process's resident size is about that plus the GC's headroom).
+func BenchmarkReport1M(b *testing.B) {
+	path := benchSnapshots(b)
+	fi, _ := os.Stat(path)
+	b.SetBytes(fi.Size())
+	rows := float64(fi.Size()) / 80
+	var peak uint64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		done := make(chan struct{})
+		go func() { // sample the heap while the report runs
+			var ms runtime.MemStats
+			for {
+				select {
+				case <-done:
+					return
+				default:
+				}
+				runtime.ReadMemStats(&ms)
+				peak = max(peak, ms.HeapInuse)
+				time.Sleep(20 * time.Millisecond)
+			}
+		}()
+		code := run(context.Background(), []string{"report", "--format", "json", path}, strings.NewReader(""), io.Discard, io.Discard)
+		close(done)
+		if code != 0 {
+			b.Fatalf("exit %d", code)
+		}
+	}
+	b.ReportMetric(rows*float64(b.N)/b.Elapsed().Seconds(), "rows/s")
+	b.ReportMetric(float64(peak)/(1<<20), "heap-MB")
+}
