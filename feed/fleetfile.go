@@ -205,7 +205,6 @@ func keyText(parts []string) string {
 	return k
 }
 
-
 // RosterCheck is the reader's tail check of a roster: a snapshot of a tail
 // that has no entry in force at its time is rejected with the roster's
 // reason. Nil for a single-type roster, which accepts every tail.

@@ -19,7 +19,7 @@ import (
 // does the same for each unknown key.
 type tomlDoc struct {
 	keys   []tomlKey
-	tables []tomlKey         // table and array-table headers
+	tables []tomlKey        // table and array-table headers
 	arrays map[string][]int // line of each [[key]] header, in order
 }
 

@@ -204,7 +204,6 @@ func ParseType(name string, data []byte) (*model.Type, error) {
 	return t, nil
 }
 
-
 // FormatType writes t as a type file that ParseType reads back to the same
 // values.
 func FormatType(t *model.Type) []byte {
