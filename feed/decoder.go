@@ -125,7 +125,7 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 		d.hdr = h
 		return Record{}, false, nil
 	}
-	if isHeader(d.fields) {
+	if d.hdr.idx[colTime] < len(d.fields) && !isDigit(d.fields[d.hdr.idx[colTime]]) && isHeader(d.fields) {
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
 			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "a second header line that cannot be used: " + msg}
@@ -138,6 +138,10 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 	}
 	return d.row(n)
 }
+
+// isDigit reports whether b starts with a digit, as every time does (so
+// that a data row is not looked at as a header again).
+func isDigit(b []byte) bool { return len(b) > 0 && b[0] >= '0' && b[0] <= '9' }
 
 // isHeader reports whether the fields of a line after the header are a
 // header again (two exports joined into one file): they name the time and
@@ -231,7 +235,11 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	if len(tf) == 0 {
 		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
 	}
-	t, err := time.Parse(time.RFC3339, string(tf))
+	t, ok := fastTime(tf)
+	var err error
+	if !ok {
+		t, err = time.Parse(time.RFC3339, string(tf))
+	}
 	if _, off := t.Zone(); err == nil && (off <= -24*3600 || off >= 24*3600) {
 		err = errors.New("offset of 24 h or more") // RFC 3339 offsets have hours 00–23
 	}
@@ -269,12 +277,16 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 			}
 			continue // optional: 0
 		}
-		x, err := strconv.ParseFloat(string(b), 64)
-		if err == nil && (math.IsNaN(x) || math.IsInf(x, 0)) {
-			return d.reject(n, h.name[c], ErrNotFinite, "not a finite number")
-		}
-		if err != nil || !plainDecimal(b) {
-			return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%s is not a number", quoteField(b)))
+		x, plain, fast := parseDecimal(b)
+		if !fast {
+			var err error
+			x, err = strconv.ParseFloat(string(b), 64)
+			if err == nil && (math.IsNaN(x) || math.IsInf(x, 0)) {
+				return d.reject(n, h.name[c], ErrNotFinite, "not a finite number")
+			}
+			if err != nil || !plain {
+				return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%s is not a number", quoteField(b)))
+			}
 		}
 		v[c] = x
 	}

@@ -3,6 +3,7 @@ package feed
 import (
 	"strconv"
 	"strings"
+	"time"
 	"unicode/utf8"
 )
 
@@ -36,42 +37,100 @@ func badText(b []byte) string {
 	return ""
 }
 
-// plainDecimal reports whether b is a number as the snapshot format writes
-// one: an optional sign, digits with an optional point, an optional
-// exponent. strconv also takes hexadecimal floats (0x1p16) and digit
-// separators (1_000), which no export writes and which hide typing errors.
-func plainDecimal(b []byte) bool {
+// pow10 holds the powers of ten that float64 represents exactly.
+var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11,
+	1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// parseDecimal reads b as a number as the snapshot format writes one: an
+// optional sign, digits with an optional point, an optional exponent.
+// strconv also takes hexadecimal floats (0x1p16) and digit separators
+// (1_000), which no export writes and which hide typing errors; plain is
+// false for those and for anything else. When the digits fit 2^53 and the
+// power of ten is within ±22, the value is the exact mantissa times or over
+// an exact power of ten, one correctly rounded operation (Clinger 1990),
+// the same value strconv.ParseFloat gives; fast is false otherwise, and the
+// caller asks strconv.
+func parseDecimal(b []byte) (v float64, plain, fast bool) {
 	i := 0
+	neg := false
 	if i < len(b) && (b[i] == '+' || b[i] == '-') {
+		neg = b[i] == '-'
 		i++
 	}
-	digits := 0
-	for i < len(b) && b[i] >= '0' && b[i] <= '9' {
-		i, digits = i+1, digits+1
+	var m uint64
+	digits, sig, exp := 0, 0, 0 // all digits, digits kept in m, power of ten of m's last
+	overflow := false           // more significant digits than m holds
+	for ; i < len(b) && b[i] >= '0' && b[i] <= '9'; i++ {
+		digits++
+		switch {
+		case m == 0 && b[i] == '0': // a leading zero
+		case sig < 19:
+			m, sig = m*10+uint64(b[i]-'0'), sig+1
+		default:
+			overflow, exp = true, exp+1
+		}
 	}
 	if i < len(b) && b[i] == '.' {
-		i++
-		for i < len(b) && b[i] >= '0' && b[i] <= '9' {
-			i, digits = i+1, digits+1
+		for i++; i < len(b) && b[i] >= '0' && b[i] <= '9'; i++ {
+			digits++
+			switch {
+			case m == 0 && b[i] == '0': // a leading zero after the point
+				exp--
+			case sig < 19:
+				m, sig, exp = m*10+uint64(b[i]-'0'), sig+1, exp-1
+			default:
+				overflow = true
+			}
 		}
 	}
 	if digits == 0 {
-		return false
+		return 0, false, false
 	}
 	if i < len(b) && (b[i] == 'e' || b[i] == 'E') {
 		i++
+		eneg := false
 		if i < len(b) && (b[i] == '+' || b[i] == '-') {
+			eneg = b[i] == '-'
 			i++
 		}
-		exp := 0
+		e, n := 0, 0
 		for i < len(b) && b[i] >= '0' && b[i] <= '9' {
-			i, exp = i+1, exp+1
+			if e < 10000 {
+				e = e*10 + int(b[i]-'0')
+			}
+			i, n = i+1, n+1
 		}
-		if exp == 0 {
-			return false
+		if n == 0 {
+			return 0, false, false
 		}
+		if eneg {
+			e = -e
+		}
+		exp += e
 	}
-	return i == len(b)
+	if i != len(b) {
+		return 0, false, false
+	}
+	if overflow || m > 1<<53 || exp < -22 || exp > 22 {
+		return 0, true, false
+	}
+	v = float64(m)
+	if exp >= 0 {
+		v *= pow10[exp]
+	} else {
+		v /= pow10[-exp]
+	}
+	if neg {
+		v = -v
+	}
+	return v, true, true
+}
+
+// plainDecimal reports whether b is a number as the snapshot format writes
+// one (parseDecimal).
+func plainDecimal(b []byte) bool {
+	_, plain, _ := parseDecimal(b)
+	return plain
 }
 
 // quoteField quotes a field for a message, cut to 40 bytes: a hostile file
@@ -100,4 +159,43 @@ func plainText(s string) string {
 		}
 		return r
 	}, strings.ToValidUTF8(s, "\uFFFD"))
+}
+
+// fastTime reads the commonest time of an export, "2026-03-01T10:22:00Z"
+// (exactly that form, UTC, whole seconds), without time.Parse; ok is false
+// for anything else, which time.Parse then reads (and judges). The fields
+// are checked as time.Parse checks them, so both give the same instant.
+func fastTime(b []byte) (time.Time, bool) {
+	if len(b) != 20 || b[4] != '-' || b[7] != '-' || b[10] != 'T' || b[13] != ':' || b[16] != ':' || b[19] != 'Z' {
+		return time.Time{}, false
+	}
+	num := func(i, n int) int {
+		v := 0
+		for _, c := range b[i : i+n] {
+			if c < '0' || c > '9' {
+				return -1
+			}
+			v = v*10 + int(c-'0')
+		}
+		return v
+	}
+	y, mo, d, h, mi, s := num(0, 4), num(5, 2), num(8, 2), num(11, 2), num(14, 2), num(17, 2)
+	if y < 0 || mo < 1 || mo > 12 || d < 1 || h < 0 || h > 23 || mi < 0 || mi > 59 || s < 0 || s > 59 {
+		return time.Time{}, false
+	}
+	if d > daysIn(time.Month(mo), y) {
+		return time.Time{}, false
+	}
+	return time.Date(y, time.Month(mo), d, h, mi, s, 0, time.UTC), true
+}
+
+// daysIn is the number of days of month m in year y (Gregorian).
+func daysIn(m time.Month, y int) int {
+	if m == time.February {
+		if y%4 == 0 && (y%100 != 0 || y%400 == 0) {
+			return 29
+		}
+		return 28
+	}
+	return 31 - int(m-1)%7%2
 }

@@ -2,11 +2,15 @@ package feed
 
 import (
 	"errors"
+	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
+	"time"
 )
 
 // Rows that once were accepted or misread: control characters in ids (an
@@ -79,5 +83,55 @@ func TestRepeatedHeader(t *testing.T) {
 	var fe *FileError
 	if !errors.As(err, &fe) || fe.Line != 3 || !strings.Contains(err.Error(), "second header") {
 		t.Errorf("unusable second header: %v", err)
+	}
+}
+
+// parseDecimal gives exactly strconv.ParseFloat's value wherever it takes
+// its fast path, and says when it does not (the caller then asks strconv).
+func TestParseDecimalMatchesStrconv(t *testing.T) {
+	cases := []string{"0", "-0", "65000", "0.78", "-54.3", "2380", "6.5e4", "+65000.", ".5e5", "6.5E+04",
+		"0.000123", "123456789012345678", "1234567890123456789012", "9007199254740993", "1e22", "1e23", "1e-22", "1e-23",
+		"3.141592653589793238", "0.1", "0.30000000000000004", "100000000000000000000000", "000123.4500", "1e400", "4.9e-324"}
+	rng := rand.New(rand.NewPCG(5, 6))
+	for i := 0; i < 20000; i++ {
+		cases = append(cases, strconv.FormatFloat((rng.Float64()-0.5)*math.Pow(10, float64(rng.IntN(12)-4)), 'f', rng.IntN(8), 64))
+	}
+	for _, c := range cases {
+		v, plain, fast := parseDecimal([]byte(c))
+		want, err := strconv.ParseFloat(c, 64)
+		if !plain {
+			t.Errorf("%q: not plain", c)
+			continue
+		}
+		if fast && (err != nil || math.Float64bits(v) != math.Float64bits(want)) {
+			t.Errorf("%q: fast %v, strconv %v (%v)", c, v, want, err)
+		}
+	}
+	for _, bad := range []string{"", ".", "-", "1e", "1e+", "0x1p16", "1_000", "1.2.3", "inf", "NaN", " 1", "1 "} {
+		if _, plain, _ := parseDecimal([]byte(bad)); plain {
+			t.Errorf("%q taken as a plain decimal", bad)
+		}
+	}
+}
+
+// fastTime gives the instant time.Parse gives, and declines all it cannot
+// read exactly (time.Parse then judges those).
+func TestFastTimeMatchesParse(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	cases := []string{"2026-03-01T10:22:00Z", "2024-02-29T23:59:59Z", "2023-02-29T00:00:00Z", "2026-13-01T00:00:00Z",
+		"2026-04-31T00:00:00Z", "2026-03-01T24:00:00Z", "2026-03-01T10:60:00Z", "2026-03-01T10:22:60Z", "2026-03-01T10:22:00+00:00",
+		"2026-03-01t10:22:00Z", "2026-03-01T10:22:00.5Z", "0000-01-01T00:00:00Z", "2026-03-01T10:22:0xZ"}
+	for i := 0; i < 5000; i++ {
+		cases = append(cases, fmt.Sprintf("%04d-%02d-%02dT%02d:%02d:%02dZ", 1900+rng.IntN(300), rng.IntN(14), rng.IntN(33), rng.IntN(26), rng.IntN(62), rng.IntN(62)))
+	}
+	for _, c := range cases {
+		got, ok := fastTime([]byte(c))
+		want, err := time.Parse(time.RFC3339, c)
+		if ok && (err != nil || !got.Equal(want) || got.Location() != want.Location()) {
+			t.Errorf("%q: fast %v, time.Parse %v (%v)", c, got, want, err)
+		}
+		if !ok && err == nil && len(c) == 20 && c[19] == 'Z' {
+			t.Errorf("%q: declined a time that time.Parse reads", c)
+		}
 	}
 }
