@@ -18,7 +18,10 @@ type TrendPoint struct {
 	Bank             float64 // rad
 	VS               float64 // m/s
 	Accel            float64 // m/s²
-	OutsideTable     bool    // N1k or Mach outside the type's thrust table
+	// EngineDevPct is the engine deviation, % (thrust from fan speed);
+	// NaN when the thrust came from fuel flow. The engine series is made
+	// of the points that have one (EngineSeries), so it needs no copy.
+	EngineDevPct float64
 
 	// For the tail's own polar and its typical cruise (single precision is
 	// ample for both).
@@ -28,13 +31,32 @@ type TrendPoint struct {
 	Altitude   float32 // m, pressure altitude
 	Mach       float32
 	ISADev     float32 // K
+
+	OutsideTable bool // N1k or Mach outside the type's thrust table
+}
+
+// EngineSeries returns the engine series of pts: the points with an engine
+// deviation, with it as their DevPct (a new slice; pts is not changed).
+func EngineSeries(pts []TrendPoint) []TrendPoint {
+	var out []TrendPoint
+	for _, p := range pts {
+		if !math.IsNaN(p.EngineDevPct) {
+			p.DevPct = p.EngineDevPct
+			out = append(out, p)
+		}
+	}
+	return out
 }
 
 // NewTrendPoint makes the trend's point of an analysed snapshot s taken at
 // time t in flight f.
 func NewTrendPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
+	eng := math.NaN()
+	if p.ThrustFromN1 {
+		eng = p.EngineDevPct
+	}
 	return TrendPoint{Time: t, Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
-		Bank: s.Bank, VS: s.VS, Accel: s.Accel, OutsideTable: p.OutsideThrustTable,
+		Bank: s.Bank, VS: s.VS, Accel: s.Accel, OutsideTable: p.OutsideThrustTable, EngineDevPct: eng,
 		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
 		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
 }

@@ -44,9 +44,9 @@ type Result struct {
 	Points map[string][]model.TrendPoint // analysed snapshots by tail, in time order
 	// Engine is the engine series (DevPct is the engine deviation) of the
 	// tails whose snapshots had thrust from fan speed, assessed like the
-	// airframe's; EnginePoints holds its points by tail, in time order.
-	Engine       model.Fleet
-	EnginePoints map[string][]model.TrendPoint
+	// airframe's; its points are those of Points with an EngineDevPct
+	// (model.EngineSeries).
+	Engine model.Fleet
 	// Records are the accepted records by tail in time order, when
 	// Input.KeepRecords is set, as read (Roster.Analyze applies the fleet
 	// file's fuel-flow correction when they are analysed again).
@@ -235,7 +235,7 @@ func newResult(in Input, files int) *Result {
 	} else {
 		typ = roster.Single()
 	}
-	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, EnginePoints: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
+	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -273,12 +273,7 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	tp := model.NewTrendPoint(rec.Time, rec.Flight, snap, p)
-	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
-	if p.ThrustFromN1 {
-		tp.DevPct = p.EngineDevPct
-		r.EnginePoints[rec.Tail] = append(r.EnginePoints[rec.Tail], tp)
-	}
+	r.Points[rec.Tail] = append(r.Points[rec.Tail], model.NewTrendPoint(rec.Time, rec.Flight, snap, p))
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
 	}
@@ -308,7 +303,7 @@ func (r *Result) assess(in Input) {
 	engine := make([]model.TailTrend, len(tails))
 	// Per tail, the points, engine points and records without repeats, and
 	// how many were dropped: put back into the maps after the workers.
-	pointsOf, engineOf := make([][]model.TrendPoint, len(tails)), make([][]model.TrendPoint, len(tails))
+	pointsOf, hasEngine := make([][]model.TrendPoint, len(tails)), make([]bool, len(tails))
 	recordsOf, dups := make([][]feed.Record, len(tails)), make([]int, len(tails))
 	jobs := make(chan int)
 	var wg sync.WaitGroup
@@ -334,10 +329,8 @@ func (r *Result) assess(in Input) {
 				}
 				trends[i] = model.AnalyzeTrend(tail, pts, af, in.Config)
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
-				if ep := r.EnginePoints[tail]; len(ep) > 0 {
-					sort.SliceStable(ep, func(a, b int) bool { return ep[a].Time.Before(ep[b].Time) })
-					ep, _ = dedupe(ep, func(p model.TrendPoint) time.Time { return p.Time })
-					engineOf[i] = ep
+				if ep := model.EngineSeries(pts); len(ep) > 0 {
+					hasEngine[i] = true
 					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
@@ -351,9 +344,6 @@ func (r *Result) assess(in Input) {
 	wg.Wait()
 	for i, tail := range tails {
 		r.Points[tail] = pointsOf[i]
-		if engineOf[i] != nil {
-			r.EnginePoints[tail] = engineOf[i]
-		}
 		if recordsOf[i] != nil {
 			r.Records[tail] = recordsOf[i]
 		}
@@ -362,7 +352,7 @@ func (r *Result) assess(in Input) {
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
-		if len(r.EnginePoints[tails[i]]) > 0 {
+		if hasEngine[i] {
 			withEngine = append(withEngine, tr)
 		}
 	}
