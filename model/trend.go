@@ -9,18 +9,16 @@ import (
 	"time"
 )
 
-// TrendPoint is one analysed snapshot of a tail, as the trend uses it.
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 96
+// bytes, and a million of them are a year of a large fleet.
 type TrendPoint struct {
 	Time             time.Time
 	Flight           string
 	DevPct           float64 // drag deviation, % of baseline drag
 	FuelFlowExpected float64 // kg/s on the baseline polar
-	Bank             float64 // rad
-	VS               float64 // m/s
-	Accel            float64 // m/s²
-	// EngineDevPct is the engine deviation, % (thrust from fan speed);
-	// NaN when the thrust came from fuel flow. The engine series is made
-	// of the points that have one (EngineSeries), so it needs no copy.
+	// EngineDevPct is the engine deviation, % (thrust from fan speed),
+	// when HasEngine. The engine series is made of the points that have
+	// one (EngineSeries), so it needs no copy of them.
 	EngineDevPct float64
 
 	// For the tail's own polar and its typical cruise (single precision is
@@ -33,14 +31,31 @@ type TrendPoint struct {
 	ISADev     float32 // K
 
 	OutsideTable bool // N1k or Mach outside the type's thrust table
+	HasEngine    bool // thrust from fan speed: EngineDevPct holds the engine deviation
+	// Manoeuvre says which limit of the configuration that made the point
+	// (TrendConfig.NewPoint) its bank, vertical speed or acceleration
+	// passes; ManoeuvreNone when none. The values themselves are not kept.
+	Manoeuvre Manoeuvre
 }
+
+// Manoeuvre is the first of bank, vertical speed and acceleration that is
+// beyond its limit.
+type Manoeuvre uint8
+
+// The manoeuvres that leave a point out of the trend.
+const (
+	ManoeuvreNone Manoeuvre = iota
+	ManoeuvreBank
+	ManoeuvreVS
+	ManoeuvreAccel
+)
 
 // EngineSeries returns the engine series of pts: the points with an engine
 // deviation, with it as their DevPct (a new slice; pts is not changed).
 func EngineSeries(pts []TrendPoint) []TrendPoint {
 	var out []TrendPoint
 	for _, p := range pts {
-		if !math.IsNaN(p.EngineDevPct) {
+		if p.HasEngine {
 			p.DevPct = p.EngineDevPct
 			out = append(out, p)
 		}
@@ -48,15 +63,21 @@ func EngineSeries(pts []TrendPoint) []TrendPoint {
 	return out
 }
 
-// NewTrendPoint makes the trend's point of an analysed snapshot s taken at
-// time t in flight f.
-func NewTrendPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
-	eng := math.NaN()
-	if p.ThrustFromN1 {
-		eng = p.EngineDevPct
+// NewPoint makes the trend's point of an analysed snapshot s taken at time
+// t in flight f, judging its manoeuvre against c's limits (Usable must be
+// asked with the same limits).
+func (c *TrendConfig) NewPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
+	m := ManoeuvreNone
+	switch {
+	case math.Abs(s.Bank) > c.MaxBank:
+		m = ManoeuvreBank
+	case math.Abs(s.VS) > c.MaxVS:
+		m = ManoeuvreVS
+	case math.Abs(s.Accel) > c.MaxAccel:
+		m = ManoeuvreAccel
 	}
 	return TrendPoint{Time: t, Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
-		Bank: s.Bank, VS: s.VS, Accel: s.Accel, OutsideTable: p.OutsideThrustTable, EngineDevPct: eng,
+		OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m,
 		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
 		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
 }
@@ -158,18 +179,19 @@ const (
 
 // Usable reports why p cannot be used for the trend, or "" when it can: a
 // fan speed outside the type's thrust table, |deviation| above MaxAbsDevPct, or bank, vertical speed or acceleration
-// beyond their limits (within them the energy method corrects for them).
+// beyond their limits as NewPoint judged them (within them the energy method
+// corrects for them).
 func (c *TrendConfig) Usable(p TrendPoint) string {
 	switch {
 	case p.OutsideTable:
 		return ExcludeThrustTable
 	case math.IsNaN(p.DevPct) || math.Abs(p.DevPct) > c.MaxAbsDevPct:
 		return ExcludeImplausible
-	case math.Abs(p.Bank) > c.MaxBank:
+	case p.Manoeuvre == ManoeuvreBank:
 		return ExcludeBank
-	case math.Abs(p.VS) > c.MaxVS:
+	case p.Manoeuvre == ManoeuvreVS:
 		return ExcludeVS
-	case math.Abs(p.Accel) > c.MaxAccel:
+	case p.Manoeuvre == ManoeuvreAccel:
 		return ExcludeAccel
 	}
 	return ""

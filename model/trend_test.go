@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 	"time"
+	"unsafe"
 )
 
 var day0 = time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
@@ -256,7 +257,7 @@ func TestTrendEdgeCases(t *testing.T) {
 	if one.Points != 1 || len(one.Flights) != 1 || one.RecentPct != 1.5 || !math.IsNaN(one.Drift.Slope) || len(one.Steps) != 0 {
 		t.Errorf("one flight: %+v", one)
 	}
-	bad := AnalyzeTrend("BAD", []TrendPoint{{Time: day0, DevPct: 40}, {Time: day0, DevPct: 1, Bank: 1}}, nil, c)
+	bad := AnalyzeTrend("BAD", []TrendPoint{{Time: day0, DevPct: 40}, {Time: day0, DevPct: 1, Manoeuvre: ManoeuvreBank}}, nil, c)
 	if bad.Points != 0 || bad.Excluded[ExcludeImplausible] != 1 || bad.Excluded[ExcludeBank] != 1 || !math.IsNaN(bad.RecentPct) {
 		t.Errorf("all excluded: %+v", bad)
 	}
@@ -371,5 +372,12 @@ func TestTrendWhy(t *testing.T) {
 	}
 	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), nil, DefaultTrendConfig()); ok.Why() != "" {
 		t.Errorf("a tail with a level says %q", ok.Why())
+	}
+}
+
+// A trend point stays compact: a year of a large fleet is millions of them.
+func TestTrendPointSize(t *testing.T) {
+	if n := unsafe.Sizeof(TrendPoint{}); n > 96 {
+		t.Errorf("TrendPoint is %d bytes, want at most 96", n)
 	}
 }

@@ -202,7 +202,7 @@ func (s *flightScreen) seek(n int) {
 		}
 		s.points = append(s.points, p)
 		if why == "" {
-			why = s.cfg.Usable(model.NewTrendPoint(r.Time, r.Flight, snap, p))
+			why = s.cfg.Usable(s.cfg.NewPoint(r.Time, r.Flight, snap, p))
 		}
 		s.left = append(s.left, why)
 	}

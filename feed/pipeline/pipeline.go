@@ -273,7 +273,7 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	r.Points[rec.Tail] = append(r.Points[rec.Tail], model.NewTrendPoint(rec.Time, rec.Flight, snap, p))
+	r.Points[rec.Tail] = append(r.Points[rec.Tail], r.Config.NewPoint(rec.Time, rec.Flight, snap, p))
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
 	}
