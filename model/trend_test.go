@@ -381,3 +381,31 @@ func TestTrendPointSize(t *testing.T) {
 		t.Errorf("TrendPoint is %d bytes, want at most 96", n)
 	}
 }
+
+// BenchmarkAnalyzeTrend: one tail of about 3,300 snapshots (550 days, two
+// flights a day, three snapshots a flight) with a drift and a step, the
+// shape of an airline export; points/s over the whole trend (flights,
+// rolling median, steps, drift, own polar).
+func BenchmarkAnalyzeTrend(b *testing.B) {
+	base := series(550, 0.6, 3, func(d float64) float64 {
+		if d > 300 {
+			return 2 + 0.01*(d-300)
+		}
+		return 0.2
+	})
+	var pts []TrendPoint
+	for _, p := range base { // three snapshots a flight
+		for k := 0; k < 3; k++ {
+			q := p
+			q.Time = p.Time.Add(time.Duration(20*k) * time.Minute)
+			q.CL, q.CDLessWave = 0.5+0.01*float32(k), 0.028+0.0005*float32(k)
+			pts = append(pts, q)
+		}
+	}
+	c := DefaultTrendConfig()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		AnalyzeTrend("T", pts, nil, c)
+	}
+	b.ReportMetric(float64(len(pts)*b.N)/b.Elapsed().Seconds(), "points/s")
+}
