@@ -21,6 +21,8 @@ const (
 	colVS
 	colAccel
 	colN1
+	colSamples // written by extract: the samples of the window
+	colSeconds // written by extract: the window's length
 	numColumns
 )
 
@@ -45,6 +47,7 @@ var knownColumns = map[string]column{
 	unitKgph: colFuelFlow, unitLbph: colFuelFlow,
 	unitSAT: colTemp, unitTAT: colTemp,
 	"bank_deg": colBank, "vs_fpm": colVS, "accel_kt_per_min": colAccel, "n1_pct": colN1,
+	"samples": colSamples, "seconds": colSeconds,
 }
 
 // requiredColumns names, for each required column, how to ask for it.
@@ -93,7 +96,7 @@ func (h *header) fieldName(i int) string {
 // acceptedColumns lists the column names a snapshot file may have, for
 // messages.
 const acceptedColumns = "time, tail, flight, weight_kg|weight_lb, alt_ft|alt_m, mach, fuel_flow_kgph|fuel_flow_lbph, " +
-	"sat_c|tat_c, bank_deg, vs_fpm, accel_kt_per_min, n1_pct"
+	"sat_c|tat_c, bank_deg, vs_fpm, accel_kt_per_min, n1_pct, samples, seconds"
 
 // eventsHeader is parseHeader's answer for the header of an events file
 // (time,tail,kind,note; DESIGN.md §3.3), which a folder may hold beside the

@@ -313,6 +313,13 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	s.VS = MPerSFromFtPerMin(v[colVS])
 	s.Accel = MPerS2FromKtPerMin(v[colAccel])
 	s.N1 = v[colN1] // % stays %; an empty field is 0, "not recorded"
+	if v[colSamples] < 0 || v[colSamples] != math.Trunc(v[colSamples]) || v[colSamples] > 1e9 {
+		return d.reject(n, h.name[colSamples], ErrRange, fmt.Sprintf("must be a whole number ≥ 0, got %g", v[colSamples]))
+	}
+	if !(v[colSeconds] >= 0 && v[colSeconds] <= 1e7) {
+		return d.reject(n, h.name[colSeconds], ErrRange, fmt.Sprintf("must be 0 … 1e7 s, got %g", v[colSeconds]))
+	}
+	rec.Samples, rec.Seconds = int(v[colSamples]), v[colSeconds]
 	if h.idx[colN1] >= 0 && s.N1 == 0 && len(f(colN1)) > 0 {
 		return d.reject(n, h.name[colN1], ErrRange, fmt.Sprintf("fan speed must be in (0, %g] %%, got 0 %% (leave the field empty when it is not recorded)", MaxN1Pct))
 	}

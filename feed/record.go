@@ -16,6 +16,10 @@ type Record struct {
 	Snap   model.Snapshot
 	File   string // the file it came from
 	Line   int    // 1-based line where the row starts
+	// Samples and Seconds are the window a snapshot of extract stands for
+	// (0 when the file has no such columns).
+	Samples int
+	Seconds float64
 }
 
 // The kinds of reject. A *RowError or *SnapshotError wraps one of them, so

@@ -33,6 +33,12 @@ func MPerSFromFtPerMin(v float64) float64 { return v * model.Foot / model.Minute
 // MPerS2FromKtPerMin converts a rate of change of airspeed in kt/min to m/s².
 func MPerS2FromKtPerMin(v float64) float64 { return v * model.Knot / model.Minute }
 
+// FtPerMinFromMPerS converts a vertical speed, m/s → ft/min.
+func FtPerMinFromMPerS(v float64) float64 { return v / model.Foot * model.Minute }
+
+// KtPerMinFromMPerS2 converts an acceleration, m/s² → kt/min.
+func KtPerMinFromMPerS2(v float64) float64 { return v / model.Knot * model.Minute }
+
 // SATFromTAT returns the static air temperature (K) from the total air
 // temperature tat (K) at Mach m, with recovery factor 1:
 // SAT = TAT / (1 + (γ−1)/2 M²) = TAT / (1 + 0.2 M²) (adiabatic stagnation

@@ -40,6 +40,7 @@ func commands() []command {
 		{"speed", "cruise optimum for a weight: best Mach numbers and altitudes", runSpeed},
 		{"bank", "bank-angle penalty table: load factor, drag and fuel", runBank},
 		{"check", "validate snapshot files; list every rejected row", runCheck},
+		{"extract", "stable windows of continuous recordings, written as snapshots", runExtract},
 		{"replay", "play snapshots in time order, analysed, at a chosen speed", runReplay},
 		{"follow", "watch a growing snapshot file; analyse rows as they arrive", runFollow},
 		{"report", "per-tail drag trends, flags and cost for a fleet", runReport},
