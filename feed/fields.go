@@ -126,13 +126,6 @@ func parseDecimal(b []byte) (v float64, plain, fast bool) {
 	return v, true, true
 }
 
-// plainDecimal reports whether b is a number as the snapshot format writes
-// one (parseDecimal).
-func plainDecimal(b []byte) bool {
-	_, plain, _ := parseDecimal(b)
-	return plain
-}
-
 // quoteField quotes a field for a message, cut to 40 bytes: a hostile file
 // can hold a 300-digit number or a field of megabytes.
 func quoteField(b []byte) string {
