@@ -41,7 +41,13 @@ type Decoder struct {
 	// the input (two exports joined): the rows after it are read with its
 	// columns and units.
 	Notice func(string)
+	// stopAtHeader makes a header line inside the input an errHeaderInPart
+	// (a part of a file read on its own cannot know the layout after it).
+	stopAtHeader bool
 }
+
+// errHeaderInPart is a header line met by a decoder with stopAtHeader.
+var errHeaderInPart = errors.New("a header line inside the part")
 
 // TailCheck says why a tail's snapshot at time t cannot be analysed, or ""
 // when it can.
@@ -126,6 +132,9 @@ func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
 		return Record{}, false, nil
 	}
 	if d.hdr.idx[colTime] < len(d.fields) && !isDigit(d.fields[d.hdr.idx[colTime]]) && isHeader(d.fields) {
+		if d.stopAtHeader {
+			return Record{}, false, errHeaderInPart
+		}
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
 			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "a second header line that cannot be used: " + msg}

@@ -18,7 +18,8 @@ import (
 type Reader struct {
 	d    *Decoder
 	br   *bufio.Reader
-	line int
+	line int // lines read, plus base: the line number of the last line
+	base int // lines before the part of the file this reader reads
 	long []byte
 	done error // sticky final error (io.EOF, *FileError or an I/O error)
 }
@@ -46,9 +47,9 @@ func (r *Reader) Next() (Record, error) {
 		case err != nil:
 			r.done = err
 		case line == nil: // longer than maxLine, skipped
-			return Record{}, r.keep(r.d.TooLong(r.line))
+			return Record{}, r.keep(r.d.TooLong(r.line + r.base))
 		default:
-			rec, ok, err := r.d.Line(line, r.line)
+			rec, ok, err := r.d.Line(line, r.line+r.base)
 			if ok {
 				return rec, nil
 			}

@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"math"
+	"runtime"
 	"strconv"
 	"strings"
 	"time"
@@ -72,7 +73,7 @@ read as a stream, one flight per tail at a time.`,
 	x := newExtractor(e, c)
 	failed := 0
 	for _, path := range files {
-		res := feed.ReadFileWith(path, feed.ReadOptions{}, x.add, func(r *feed.RowError) {
+		res := feed.ReadFileParallel(path, feed.ReadOptions{}, runtime.GOMAXPROCS(0), x.add, func(r *feed.RowError) {
 			fmt.Fprintf(e.stderr, "dragdeck extract: rejected %v\n", r)
 		})
 		x.flushAll()

@@ -165,6 +165,9 @@ func Run(in Input) *Result {
 	}
 	jobs := make(chan int)
 	var wg sync.WaitGroup
+	// Files are read side by side; a file is cut into parts for the
+	// cores that no other file uses (one big export on its own).
+	perFile := max(1, runtime.GOMAXPROCS(0)/max(1, len(in.Paths)))
 	for w := 0; w < max(1, min(runtime.GOMAXPROCS(0), len(in.Paths))); w++ {
 		wg.Add(1)
 		go func() {
@@ -172,7 +175,7 @@ func Run(in Input) *Result {
 			for i := range jobs {
 				batch := getBatch()
 				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: feed.RosterCheck(r.Roster)}
-				r.Files[i] = feed.ReadFileWith(in.Paths[i], opt, func(rec feed.Record) {
+				r.Files[i] = feed.ReadFileParallel(in.Paths[i], opt, perFile, func(rec feed.Record) {
 					batch = append(batch, rec)
 					if len(batch) == batchSize {
 						batches <- batch

@@ -1,0 +1,266 @@
+package feed
+
+import (
+	"bytes"
+	"errors"
+	"io"
+	"os"
+	"sync"
+	"sync/atomic"
+)
+
+// Sizes of the parts a file is cut into for ReadFileParallel: smaller
+// files are read by one decoder.
+var (
+	partBytes    int64 = 1 << 20
+	minParallel  int64 = 4 << 20
+	headerWindow       = 2*maxLine + 64<<10 // where the header must be found
+)
+
+// part is one stretch of a file, [start, end) at line ends, and what its
+// decoder found in it, with lines counted from the part's start.
+type part struct {
+	start, end int64
+	recs       []Record
+	rejects    []*RowError
+	stats      Stats
+	lines      int
+	headerAt   bool  // it holds a header line: read again from its start, in order
+	err        error // an I/O error
+	done       chan struct{}
+}
+
+// ReadFileParallel is ReadFileWith with several decoders at once: after
+// its header, the file is cut into parts at line ends (a field never spans
+// lines, so a line end is always a row's end), each decoded by one of
+// workers goroutines, and the records and rejects are handed to accept and
+// reject in file order, on the caller's goroutine, with the file's own line
+// numbers, the same as ReadFileWith gives (rejects after the records of
+// their part). A header line inside the file (a new layout) is met in its
+// part; the file is then read on from that part's start by one decoder, as
+// ReadFileWith reads it. A small file, or workers < 2, is read by
+// ReadFileWith.
+func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Record), reject func(*RowError)) FileResult {
+	fi, err := os.Stat(path)
+	if workers < 2 || err != nil || !fi.Mode().IsRegular() || fi.Size() < minParallel {
+		return ReadFileWith(path, opt, accept, reject)
+	}
+	f, err := OpenRegular(path)
+	if err != nil {
+		return ReadFileWith(path, opt, accept, reject) // says why, as for any file
+	}
+	defer f.Close()
+	hdr, bodyStart, hdrLines, ok := readHeader(f, path)
+	if !ok {
+		return ReadFileWith(path, opt, accept, reject)
+	}
+	size := fi.Size()
+	parts := cutParts(f, bodyStart, size)
+	res := FileResult{Path: path, Unknown: hdr.unknown}
+
+	// At most 2 × workers parts are decoded ahead of the one handed on,
+	// so that memory stays with a few parts whatever the file's size.
+	var next atomic.Int64
+	slots := make(chan struct{}, 2*workers)
+	quit := make(chan struct{})
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				select {
+				case slots <- struct{}{}:
+				case <-quit:
+					return
+				}
+				k := int(next.Add(1) - 1)
+				select {
+				case <-quit:
+					return
+				default:
+				}
+				if k >= len(parts) {
+					return
+				}
+				decodePart(f, path, hdr, opt, parts[k])
+				close(parts[k].done)
+			}
+		}()
+	}
+	defer wg.Wait()
+	defer close(quit)
+	line := hdrLines
+	for k, p := range parts {
+		<-p.done
+		<-slots
+		if p.err != nil {
+			res.Err = p.err
+			break
+		}
+		if p.headerAt {
+			// From here on one decoder, in order, as ReadFileWith reads.
+			rest := readFrom(f, path, hdr, opt, p.start, size, line, accept, reject)
+			res.Stats.Add(rest.Stats)
+			res.Notices, res.Err = rest.Notices, rest.Err
+			break
+		}
+		for i := range p.recs {
+			p.recs[i].Line += line
+			if accept != nil {
+				accept(p.recs[i])
+			}
+		}
+		for _, e := range p.rejects {
+			e.Line += line
+			if reject != nil {
+				reject(e)
+			}
+		}
+		res.Stats.Add(p.stats)
+		line += p.lines
+		parts[k].recs, parts[k].rejects = nil, nil // let the memory go
+	}
+	return res
+}
+
+// readHeader reads the file's first lines up to its header, with one
+// decoder, and returns the header, where the body starts and how many
+// lines the header and what came before it took; false when there is no
+// usable header in the first headerWindow bytes (ReadFileWith then says
+// why).
+func readHeader(f *os.File, path string) (*header, int64, int, bool) {
+	buf := make([]byte, headerWindow)
+	n, err := f.ReadAt(buf, 0)
+	if err != nil && err != io.EOF {
+		return nil, 0, 0, false
+	}
+	buf = buf[:n]
+	d := NewDecoder(path)
+	off, line := 0, 0
+	for off < len(buf) {
+		i := bytes.IndexByte(buf[off:], '\n')
+		if i < 0 {
+			return nil, 0, 0, false
+		}
+		line++
+		if _, _, err := d.Line(buf[off:off+i], line); err != nil {
+			return nil, 0, 0, false
+		}
+		off += i + 1
+		if d.hdr != nil {
+			return d.hdr, int64(off), line, true
+		}
+	}
+	return nil, 0, 0, false
+}
+
+// cutParts cuts [from, size) into parts of about partBytes, each ending
+// just after a line end (or at the end of the file).
+func cutParts(f *os.File, from, size int64) []*part {
+	var parts []*part
+	buf := make([]byte, 64<<10)
+	for start := from; start < size; {
+		end := start + partBytes
+		if end >= size {
+			end = size
+		} else {
+			// on to the next line end
+			for {
+				n, err := f.ReadAt(buf, end)
+				if i := bytes.IndexByte(buf[:n], '\n'); i >= 0 {
+					end += int64(i) + 1
+					break
+				}
+				end += int64(n)
+				if err != nil || end >= size {
+					end = size
+					break
+				}
+			}
+		}
+		parts = append(parts, &part{start: start, end: end, done: make(chan struct{})})
+		start = end
+	}
+	return parts
+}
+
+// partDecoder is a decoder that starts with the file's header.
+func partDecoder(path string, hdr *header, opt ReadOptions) *Decoder {
+	d := NewDecoder(path)
+	d.hdr, d.first = hdr, false
+	d.CheckTail = opt.CheckTail
+	return d
+}
+
+// decodePart reads one part with its own decoder, lines counted from the
+// part's start.
+func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part) {
+	var src io.Reader = io.NewSectionReader(f, p.start, p.end-p.start)
+	if opt.Progress != nil {
+		src = countingReader{src, opt.Progress}
+	}
+	r := NewReader(src, path)
+	r.d = partDecoder(path, hdr, opt)
+	r.d.stopAtHeader = true
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			p.recs = append(p.recs, rec)
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			p.rejects = append(p.rejects, re)
+			continue
+		}
+		switch {
+		case errors.Is(err, errHeaderInPart):
+			p.headerAt = true
+		case err != io.EOF:
+			p.err = err
+		}
+		break
+	}
+	p.stats, p.lines = r.Stats(), r.line
+}
+
+// readFrom reads [from, size) with one decoder that starts with hdr, in
+// order, lines counted after base, as ReadFileWith reads a whole file.
+func readFrom(f *os.File, path string, hdr *header, opt ReadOptions, from, size int64, base int, accept func(Record), reject func(*RowError)) FileResult {
+	res := FileResult{Path: path}
+	var src io.Reader = io.NewSectionReader(f, from, size-from)
+	if opt.Progress != nil {
+		src = countingReader{src, opt.Progress}
+	}
+	r := NewReader(src, path)
+	r.d = partDecoder(path, hdr, opt)
+	r.base = base
+	r.d.Notice = func(s string) {
+		if len(res.Notices) < maxNotices {
+			res.Notices = append(res.Notices, s)
+		}
+	}
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			if accept != nil {
+				accept(rec)
+			}
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			if reject != nil {
+				reject(re)
+			}
+			continue
+		}
+		if err != io.EOF {
+			res.Err = err
+		}
+		break
+	}
+	res.Stats = r.Stats()
+	return res
+}

@@ -1,0 +1,68 @@
+package feed
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// ReadFileParallel hands on exactly what ReadFileWith does, in the same
+// order and with the same lines: on files with broken rows, comments,
+// CRLF line ends, a BOM, a too-long line, a last line without its end and
+// a second header (which switches to one decoder from its part on).
+func TestReadFileParallelSameAsOne(t *testing.T) {
+	defer func(p, m int64) { partBytes, minParallel = p, m }(partBytes, minParallel)
+	partBytes, minParallel = 700, 0 // many small parts
+	head := "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"
+	row := func(i int) string {
+		return fmt.Sprintf("2026-03-01T%02d:%02d:00Z,DD%d,F%d,%d,35000,0.78,-54.3,2380\n", i/60%24, i%60, 100+i%7, i%13, 60000+i)
+	}
+	var plain, messy, joined strings.Builder
+	plain.WriteString(head)
+	messy.WriteString("\ufeff# export\n" + head)
+	joined.WriteString(head)
+	for i := 0; i < 400; i++ {
+		plain.WriteString(row(i))
+		switch {
+		case i%37 == 5:
+			messy.WriteString("2026-03-01T10:00:00Z,DD1,F1,-5,35000,0.78,-54.3,2380\r\n") // a reject
+		case i%53 == 7:
+			messy.WriteString("# a comment\n\n")
+		case i == 200:
+			messy.WriteString("2026-03-01T10:00:00Z,DD1,F1," + strings.Repeat("9", maxLine+10) + "\n") // too long
+		}
+		messy.WriteString(strings.Replace(row(i), "\n", "\r\n", 1))
+		if i == 250 {
+			joined.WriteString("time,tail,flight,weight_lb,alt_ft,mach,sat_c,fuel_flow_lbph\n")
+		}
+		joined.WriteString(row(i))
+	}
+	messy.WriteString("2026-03-01T23:59:00Z,DD1,F1,65000,35000,0.78,-54.3,2380") // no line end
+	for name, data := range map[string]string{"plain": plain.String(), "messy": messy.String(), "second header": joined.String()} {
+		t.Run(name, func(t *testing.T) {
+			p := filepath.Join(t.TempDir(), "f.csv")
+			os.WriteFile(p, []byte(data), 0o644)
+			var wantRecs, gotRecs []Record
+			var wantRej, gotRej []string
+			want := ReadFileWith(p, ReadOptions{}, func(r Record) { wantRecs = append(wantRecs, r) }, func(e *RowError) { wantRej = append(wantRej, e.Error()) })
+			got := ReadFileParallel(p, ReadOptions{}, 3, func(r Record) { gotRecs = append(gotRecs, r) }, func(e *RowError) { gotRej = append(gotRej, e.Error()) })
+			if got.Stats != want.Stats || !reflect.DeepEqual(got.Unknown, want.Unknown) || (got.Err == nil) != (want.Err == nil) || len(got.Notices) != len(want.Notices) {
+				t.Fatalf("result %+v, one decoder %+v", got, want)
+			}
+			if !reflect.DeepEqual(gotRej, wantRej) {
+				t.Errorf("rejects %q, one decoder %q", gotRej, wantRej)
+			}
+			if len(gotRecs) != len(wantRecs) {
+				t.Fatalf("%d records, one decoder %d", len(gotRecs), len(wantRecs))
+			}
+			for i := range gotRecs {
+				if !reflect.DeepEqual(gotRecs[i], wantRecs[i]) {
+					t.Fatalf("record %d: %+v, one decoder %+v", i, gotRecs[i], wantRecs[i])
+				}
+			}
+		})
+	}
+}
