@@ -62,6 +62,7 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 	// so that memory stays with a few parts whatever the file's size.
 	var next atomic.Int64
 	slots := make(chan struct{}, 2*workers)
+	free := make(chan []Record, 2*workers+1) // the record buffers of parts handed on, for later parts
 	quit := make(chan struct{})
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
@@ -82,6 +83,11 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 				}
 				if k >= len(parts) {
 					return
+				}
+				select {
+				case parts[k].recs = <-free:
+				default:
+					parts[k].recs = make([]Record, 0, (parts[k].end-parts[k].start)/40+16)
 				}
 				decodePart(f, path, hdr, opt, parts[k])
 				close(parts[k].done)
@@ -119,7 +125,11 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 		}
 		res.Stats.Add(p.stats)
 		line += p.lines
-		parts[k].recs, parts[k].rejects = nil, nil // let the memory go
+		select {
+		case free <- p.recs[:0]:
+		default:
+		}
+		parts[k].recs, parts[k].rejects = nil, nil
 	}
 	return res
 }
