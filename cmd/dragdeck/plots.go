@@ -36,9 +36,26 @@ const maxOverview = 60
 // writePlots writes one PNG per tail with flights (tail-NAME.png, names
 // from plotNames) and, when there are tails, fleet.png into dir. It
 // returns how many it wrote.
-func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
+func writePlots(dir string, f model.Fleet, c model.TrendConfig, inputs []string) (int, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return 0, err
+	}
+	var in []os.FileInfo
+	for _, p := range inputs {
+		if fi, err := os.Stat(p); err == nil {
+			in = append(in, fi)
+		}
+	}
+	// An input file in the place of a picture is never written over.
+	save := func(p *plot.Plot, w, h vg.Length, path string) error {
+		if fi, err := os.Stat(path); err == nil {
+			for _, i := range in {
+				if os.SameFile(fi, i) {
+					return fmt.Errorf("%s is one of the input files; writing it would destroy it", path)
+				}
+			}
+		}
+		return p.Save(w, h, path)
 	}
 	tails := make([]string, len(f.Tails))
 	for i, a := range f.Tails {
@@ -51,7 +68,7 @@ func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
 			continue
 		}
 		p := tailPlot(a, c)
-		if err := p.Save(24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, names[a.Tail])); err != nil {
+		if err := save(p, 24*vg.Centimeter, 12*vg.Centimeter, filepath.Join(dir, names[a.Tail])); err != nil {
 			return n, err
 		}
 		n++
@@ -61,7 +78,7 @@ func writePlots(dir string, f model.Fleet, c model.TrendConfig) (int, error) {
 	}
 	p, shown := fleetPlot(f)
 	h := vg.Length(6+0.45*float64(shown)) * vg.Centimeter
-	return n + 1, p.Save(20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
+	return n + 1, save(p, 20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
 }
 
 // plotNames gives each tail a file name of its own: "tail-" and the tail

@@ -3,6 +3,8 @@ package main
 import (
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -56,5 +58,18 @@ func TestFleetPlotCapped(t *testing.T) {
 		if shown != want || (n > maxOverview) != strings.Contains(p.Title.Text, "most severe") {
 			t.Errorf("%d tails: %d shown, title %q; want %d", n, shown, p.Title.Text, want)
 		}
+	}
+}
+
+// --plots never writes over an input file, whatever it is called.
+func TestPlotsSpareInputs(t *testing.T) {
+	dir := t.TempDir()
+	in := filepath.Join(dir, "fleet.png") // an input named like the overview
+	os.WriteFile(in, []byte("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n2026-03-01T10:00:00Z,DD101,65000,35000,0.78,-54.3,2380\n"), 0o644)
+	before, _ := os.ReadFile(in)
+	code, _, errs := runArgs("report", "--plots", dir, in)
+	after, _ := os.ReadFile(in)
+	if code != 2 || string(after) != string(before) || !strings.Contains(errs, "would destroy it") {
+		t.Errorf("exit %d, input changed %v:\n%s", code, string(after) != string(before), errs)
 	}
 }

@@ -273,7 +273,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 		}
 	}
 	if *plots != "" {
-		n, err := writePlots(*plots, r.Fleet, c)
+		n, err := writePlots(*plots, r.Fleet, c, files)
 		if err != nil {
 			return usageErrorf("--plots: %v", err)
 		}
