@@ -1,7 +1,6 @@
 package feed
 
 import (
-	"bytes"
 	"errors"
 	"fmt"
 	"path/filepath"
@@ -50,23 +49,13 @@ func LoadFleet(path string) (*model.Roster, error) {
 }
 
 // ParseFleet decodes a fleet file called name; load reads the type file
-// that a [types] entry names. The TOML decoder is go-toml/v2 in strict mode,
-// as for type files.
+// that a [types] entry names. It is decoded as type files are
+// (decodeTOML): unknown keys are errors with their lines.
 func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, error)) (*model.Roster, error) {
 	var f fleetFile
-	if err := toml.NewDecoder(bytes.NewReader(data)).Decode(&f); err != nil {
-		return nil, tomlError(name, err, nil)
-	}
-	doc := scanTOML(data)
-	if err := doc.unknown(name, fleetSchema); err != nil {
+	doc, at, err := decodeTOML(name, data, &f, fleetSchema, nil)
+	if err != nil {
 		return nil, err
-	}
-	lines := doc.lines()
-	at := func(key string) string {
-		if l, ok := lines[key]; ok {
-			return fmt.Sprintf("%s:%d", name, l)
-		}
-		return name
 	}
 	types := map[string]*model.Type{}
 	for tn, rel := range f.Types {

@@ -213,24 +213,12 @@ func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part) 
 	r := NewReader(src, path)
 	r.d = partDecoder(path, hdr, opt)
 	r.d.stopAtHeader = true
-	for {
-		rec, err := r.Next()
-		if err == nil {
-			p.recs = append(p.recs, rec)
-			continue
-		}
-		var re *RowError
-		if errors.As(err, &re) {
-			p.rejects = append(p.rejects, re)
-			continue
-		}
-		switch {
-		case errors.Is(err, errHeaderInPart):
-			p.headerAt = true
-		case err != io.EOF:
-			p.err = err
-		}
-		break
+	err := r.each(func(rec Record) { p.recs = append(p.recs, rec) }, func(e *RowError) { p.rejects = append(p.rejects, e) })
+	switch {
+	case errors.Is(err, errHeaderInPart):
+		p.headerAt = true
+	case err != nil:
+		p.err = err
 	}
 	p.stats, p.lines = r.Stats(), r.line
 }
@@ -251,26 +239,7 @@ func readFrom(f *os.File, path string, hdr *header, opt ReadOptions, from, size 
 			res.Notices = append(res.Notices, s)
 		}
 	}
-	for {
-		rec, err := r.Next()
-		if err == nil {
-			if accept != nil {
-				accept(rec)
-			}
-			continue
-		}
-		var re *RowError
-		if errors.As(err, &re) {
-			if reject != nil {
-				reject(re)
-			}
-			continue
-		}
-		if err != io.EOF {
-			res.Err = err
-		}
-		break
-	}
+	res.Err = r.each(accept, reject)
 	res.Stats = r.Stats()
 	return res
 }

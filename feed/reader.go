@@ -170,6 +170,32 @@ func (c countingReader) Read(p []byte) (int, error) {
 	return k, err
 }
 
+// each hands every accepted record to accept and every rejected row to
+// reject (either may be nil), and returns what ended the input: nil at its
+// end, else a *FileError or an I/O error.
+func (r *Reader) each(accept func(Record), reject func(*RowError)) error {
+	for {
+		rec, err := r.Next()
+		if err == nil {
+			if accept != nil {
+				accept(rec)
+			}
+			continue
+		}
+		var re *RowError
+		if errors.As(err, &re) {
+			if reject != nil {
+				reject(re)
+			}
+			continue
+		}
+		if err == io.EOF {
+			return nil
+		}
+		return err
+	}
+}
+
 // ReadFileWith is ReadFile with options: a progress count and a tail check.
 func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func(*RowError)) FileResult {
 	res := FileResult{Path: path}
@@ -192,28 +218,12 @@ func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func
 			res.Notices = append(res.Notices, path+": more new header lines follow; not all are listed")
 		}
 	}
-	for {
-		rec, err := r.Next()
-		if err == nil {
-			if accept != nil {
-				accept(rec)
-			}
-			continue
-		}
-		var re *RowError
-		if errors.As(err, &re) {
-			if reject != nil {
-				reject(re)
-			}
-			continue
-		}
-		var fe *FileError
-		if errors.As(err, &fe) && fe.Events {
-			res.Events = true
-		} else if err != io.EOF {
-			res.Err = err
-		}
-		break
+	err = r.each(accept, reject)
+	var fe *FileError
+	if errors.As(err, &fe) && fe.Events {
+		res.Events = true
+	} else if err != nil {
+		res.Err = err
 	}
 	res.Stats, res.Unknown = r.Stats(), r.Unknown()
 	return res

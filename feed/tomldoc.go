@@ -1,12 +1,14 @@
 package feed
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"reflect"
 	"sort"
 	"strings"
 
+	"github.com/pelletier/go-toml/v2"
 	"github.com/pelletier/go-toml/v2/unstable"
 )
 
@@ -195,3 +197,23 @@ func (s tomlSchema) key(k tomlKey) bool {
 
 // table reports whether a table header's dotted key is known.
 func (s tomlSchema) table(k string) bool { return s.tables[k] }
+
+// decodeTOML decodes data into v (go-toml/v2, lenient), refuses the keys
+// schema does not know, and returns the document's scan and where each key
+// stands: at(key) is "name:line", or name when the key is not in the file.
+func decodeTOML(name string, data []byte, v any, schema tomlSchema, kinds map[string]string) (doc tomlDoc, at func(key string) string, err error) {
+	if err := toml.NewDecoder(bytes.NewReader(data)).Decode(v); err != nil {
+		return doc, nil, tomlError(name, err, kinds)
+	}
+	doc = scanTOML(data)
+	if err := doc.unknown(name, schema); err != nil {
+		return doc, nil, err
+	}
+	lines := doc.lines()
+	return doc, func(key string) string {
+		if l, ok := lines[key]; ok {
+			return fmt.Sprintf("%s:%d", name, l)
+		}
+		return name
+	}, nil
+}

@@ -9,8 +9,6 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/pelletier/go-toml/v2"
-
 	"dragdeck/model"
 )
 
@@ -102,25 +100,15 @@ var typeKeyKinds = map[string]string{
 // ParseType decodes and validates a type file; name is used in errors.
 // Errors read "name:line: key: reason" (line omitted where unknown).
 //
-// The TOML decoder is pelletier/go-toml/v2 in strict mode: a syntax or type
-// error is a *toml.DecodeError with its line and key, an unknown key a
-// *toml.StrictMissingError listing each with its line; the lines of the
-// values that fail validation come from the same library's parser.
+// The TOML decoder is pelletier/go-toml/v2: a syntax or type error is a
+// *toml.DecodeError with its line and key. Unknown keys, each with its
+// line, and the lines of the values that fail validation come from one
+// pass of the same library's parser (decodeTOML).
 func ParseType(name string, data []byte) (*model.Type, error) {
 	var f typeFile
-	if err := toml.NewDecoder(bytes.NewReader(data)).Decode(&f); err != nil {
-		return nil, tomlError(name, err, typeKeyKinds)
-	}
-	doc := scanTOML(data)
-	if err := doc.unknown(name, typeSchema); err != nil {
+	_, at, err := decodeTOML(name, data, &f, typeSchema, typeKeyKinds)
+	if err != nil {
 		return nil, err
-	}
-	lines := doc.lines()
-	at := func(key string) string {
-		if l, ok := lines[key]; ok {
-			return fmt.Sprintf("%s:%d", name, l)
-		}
-		return name
 	}
 	required := []struct {
 		key string
