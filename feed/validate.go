@@ -105,8 +105,8 @@ func CheckSnapshot(s model.Snapshot) *SnapshotError {
 		return bad(FieldBank, "|bank| must be < 90°, got %g°", s.Bank*180/math.Pi)
 	case !finite(s.VS):
 		return bad(FieldVS, notFinite)
-	case math.Abs(s.VS) >= model.AirAt(s.Altitude, s.SAT).TAS(s.Mach):
-		tas := model.AirAt(s.Altitude, s.SAT).TAS(s.Mach)
+	case s.VS != 0 && math.Abs(s.VS) >= model.TrueAirspeed(s.Mach, s.SAT):
+		tas := model.TrueAirspeed(s.Mach, s.SAT)
 		return bad(FieldVS, "|vertical speed| %s ft/min is not below the true airspeed (%.0f ft/min)", short(math.Abs(s.VS)/model.Foot*model.Minute), tas/model.Foot*model.Minute)
 	case !finite(s.Accel):
 		return bad(FieldAccel, notFinite)

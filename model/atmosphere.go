@@ -40,6 +40,22 @@ func ISA(h float64) (T, p float64) {
 	}
 }
 
+// StandardTemperature is the ISA temperature (K) at pressure altitude h,
+// ISA's T without its pressure (which costs a power).
+func StandardTemperature(h float64) float64 {
+	switch {
+	case h <= tropopause:
+		return T0 + lapseTropo*h
+	case h <= stratosphere:
+		return tTropopause
+	}
+	return tTropopause + lapseStrato*(h-stratosphere)
+}
+
+// TrueAirspeed is M a at Mach m in air of static temperature sat (K), m/s:
+// Air.TAS without the air's pressure.
+func TrueAirspeed(m, sat float64) float64 { return m * math.Sqrt(Gamma*R*sat) }
+
 // Air is the state of the air at one pressure altitude and temperature.
 type Air struct {
 	Altitude float64 // pressure altitude, m

@@ -108,3 +108,18 @@ func TestAirAtObservedTemperature(t *testing.T) {
 		t.Errorf("q = %g by ½γpM², %g by ½ρV²", q1, q2)
 	}
 }
+
+// The shortcuts give exactly what ISA and Air give.
+func TestStandardTemperatureAndTAS(t *testing.T) {
+	for _, h := range []float64{-500, 0, 5000, 10999, 11000, 15000, 20000, 25000, 31000} {
+		tISA, _ := ISA(h)
+		if got := StandardTemperature(h); got != tISA {
+			t.Errorf("h %g: %v, ISA %v", h, got, tISA)
+		}
+		for _, m := range []float64{0.3, 0.78} {
+			if got, want := TrueAirspeed(m, tISA+5), AirAt(h, tISA+5).TAS(m); got != want {
+				t.Errorf("h %g M %g: TAS %v, Air %v", h, m, got, want)
+			}
+		}
+	}
+}

@@ -251,10 +251,9 @@ func SnapshotOf(s []Sample, w Window) WindowSnapshot {
 	n1 := 0.0
 	for i, p := range part {
 		x[i] = p.Time.Sub(t0).Seconds()
-		tISA, _ := ISA(p.Altitude)
 		alt[i] = p.Altitude
-		ratio += p.SAT / tISA / n
-		tas[i] = AirAt(p.Altitude, p.SAT).TAS(p.Mach)
+		ratio += p.SAT / StandardTemperature(p.Altitude) / n
+		tas[i] = TrueAirspeed(p.Mach, p.SAT)
 		snap.Weight += p.Weight / n
 		snap.Altitude += p.Altitude / n
 		snap.Mach += p.Mach / n
