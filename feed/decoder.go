@@ -260,18 +260,17 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	if len(tail) == 0 {
 		return d.reject(n, h.name[colTail], ErrEmpty, "empty")
 	}
-	if why := badID(tail); why != "" {
+	var why string
+	if rec.Tail, why = internID(d.tails, tail); why != "" {
 		return d.reject(n, h.name[colTail], ErrID, why)
 	}
-	rec.Tail = intern(d.tails, tail)
 	if h.idx[colFlight] >= 0 {
-		if why := badID(f(colFlight)); why != "" {
-			return d.reject(n, h.name[colFlight], ErrID, why)
-		}
 		if len(d.flights) > 1<<16 {
 			clear(d.flights)
 		}
-		rec.Flight = intern(d.flights, f(colFlight))
+		if rec.Flight, why = internID(d.flights, f(colFlight)); why != "" {
+			return d.reject(n, h.name[colFlight], ErrID, why)
+		}
 	}
 
 	var v [numColumns]float64
@@ -359,11 +358,16 @@ var fieldColumn = map[Field]column{
 }
 
 // intern returns the one shared string for b.
-func intern(m map[string]string, b []byte) string {
+// internID returns the one copy of the id b kept in m, judging b (badID)
+// only the first time it is seen; why says why it cannot be used.
+func internID(m map[string]string, b []byte) (s, why string) {
 	if s, ok := m[string(b)]; ok {
-		return s
+		return s, ""
 	}
-	s := string(b)
+	if why := badID(b); why != "" {
+		return "", why
+	}
+	s = string(b)
 	m[s] = s
-	return s
+	return s, ""
 }

@@ -127,7 +127,11 @@ func StableWindows(s []Sample, c StableCriteria) (windows []Window, left [numUns
 		hasN1 = hasN1 && x.N1 > 0
 	}
 	var qs [5]minMaxQueue
-	secs := func(a, b int) float64 { return s[b].Time.Sub(s[a].Time).Seconds() }
+	at := make([]float64, n) // seconds since the first sample
+	for i := range s {
+		at[i] = s[i].Time.Sub(s[0].Time).Seconds()
+	}
+	secs := func(a, b int) float64 { return at[b] - at[a] }
 	var ffSum float64
 	// fits says whether sample j can join the window [i, j−1], and which
 	// criterion it breaks if not.

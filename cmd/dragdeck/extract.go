@@ -103,7 +103,8 @@ type extractor struct {
 	c       model.StableCriteria
 	w       *bufio.Writer
 	flights map[string]*flightBuf
-	order   []string // tails in the order they first came, for a stable output
+	last    *flightBuf // the flight of the row before, most often this row's too
+	order   []string   // tails in the order they first came, for a stable output
 	header  bool
 	n1      bool // the output has an n1_pct column
 	err     error
@@ -127,7 +128,10 @@ func newExtractor(e *env, c model.StableCriteria) *extractor {
 
 // add takes one accepted row of a recording.
 func (x *extractor) add(r feed.Record) {
-	f := x.flights[r.Tail]
+	f := x.last
+	if f == nil || f.tail != r.Tail {
+		f = x.flights[r.Tail]
+	}
 	if f == nil {
 		f = &flightBuf{tail: r.Tail, flight: r.Flight}
 		x.flights[r.Tail] = f
@@ -142,6 +146,7 @@ func (x *extractor) add(r feed.Record) {
 	} else {
 		f.flight = r.Flight
 	}
+	x.last = f
 	s := r.Snap
 	x.sawN1BeforeFirst = x.sawN1BeforeFirst || s.N1 > 0
 	f.samples = append(f.samples, model.Sample{Time: r.Time, Weight: s.Weight, Altitude: s.Altitude, Mach: s.Mach,
@@ -155,7 +160,7 @@ func (x *extractor) flushAll() {
 		x.flush(x.flights[tail])
 	}
 	clear(x.flights)
-	x.order = x.order[:0]
+	x.order, x.last = x.order[:0], nil
 }
 
 // flush finds and writes the windows of one flight and forgets it.
