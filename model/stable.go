@@ -116,6 +116,24 @@ func (q *minMaxQueue) rangeWith(vals []float64, i int) (lo, hi float64) {
 // Left, for each criterion, is the time (s) left out of every window that
 // the criterion ended (the step from a failed start to the next sample).
 func StableWindows(s []Sample, c StableCriteria) (windows []Window, left [numUnstable]float64) {
+	return stableWindows(s, c, nil)
+}
+
+// StableReasons is StableWindows with, for each sample, why it is in no
+// window: the criterion that ended the window that started at it
+// (StableOK for the samples inside windows).
+func StableReasons(s []Sample, c StableCriteria) ([]Window, []Unstable) {
+	why := make([]Unstable, len(s))
+	ws, _ := stableWindows(s, c, why)
+	for _, w := range ws {
+		for i := w.From; i <= w.To; i++ {
+			why[i] = StableOK
+		}
+	}
+	return ws, why
+}
+
+func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []Window, left [numUnstable]float64) {
 	n := len(s)
 	if n == 0 {
 		return nil, left
@@ -197,6 +215,9 @@ func StableWindows(s []Sample, c StableCriteria) (windows []Window, left [numUns
 		if i+1 < n {
 			left[why] += secs(i, i+1)
 		}
+		if reasons != nil {
+			reasons[i] = why
+		}
 		if j > i {
 			ffSum -= s[i].FuelFlow
 		}
@@ -223,6 +244,9 @@ func StableWindows(s []Sample, c StableCriteria) (windows []Window, left [numUns
 			for ; i < j; i++ {
 				if i+1 < n {
 					left[why] += secs(i, i+1)
+				}
+				if reasons != nil {
+					reasons[i] = why
 				}
 			}
 			reset()

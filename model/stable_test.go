@@ -156,3 +156,24 @@ func BenchmarkStableWindows(b *testing.B) {
 	}
 	b.ReportMetric(float64(len(s)*b.N)/b.Elapsed().Seconds(), "samples/s")
 }
+
+// StableReasons names, for each sample outside the windows, the criterion
+// that ended the window started at it: the turn's samples say bank.
+func TestStableReasons(t *testing.T) {
+	s, spans := recording([]stretch{{"steady", 300}, {"turn", 120}, {"steady", 300}}, 4)
+	ws, why := StableReasons(s, DefaultStableCriteria())
+	if len(ws) < 2 || len(why) != len(s) {
+		t.Fatalf("%d windows, %d reasons", len(ws), len(why))
+	}
+	for i, x := range s {
+		inTurn := !x.Time.Before(spans[1][0]) && x.Time.Before(spans[1][1])
+		if inTurn && why[i] != UnstableBank {
+			t.Fatalf("turn sample %d: %s", i, UnstableNames[why[i]])
+		}
+	}
+	for _, w := range ws {
+		if why[w.From] != StableOK || why[w.To] != StableOK {
+			t.Errorf("window %v: reasons %v %v", w, why[w.From], why[w.To])
+		}
+	}
+}

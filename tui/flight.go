@@ -96,6 +96,7 @@ type flightScreen struct {
 	points  []model.Point // analysis of recs[:pos]
 	left    []string      // per point, why the trend leaves it out ("" if usable)
 	span    spanCache     // the current flight's snapshots, for pos
+	stab    stability     // the current flight's stable windows, when it is a recording
 	player  *feed.Player
 	pos     int // snapshots shown
 	playing bool
@@ -386,16 +387,32 @@ func (s *flightScreen) render() {
 		use = "left out of the trend: " + why
 	}
 	lines = append(lines, s.st.Muted.Render(truncate(use+" · "+thrustNote(p), s.w)))
+	stab := s.stableOf()
+	if stab != nil && !stab.recording {
+		stab = nil
+	}
+	if stab != nil {
+		lines = append(lines, truncate(s.stableLine(stab), s.w))
+	}
 	lines = append(lines, s.splitBars(p)...)
 	lines = append(lines, "", s.bankLine(p))
 	if s.optOK {
 		lines = append(lines, s.machLine(sn.Mach), s.altLine(sn.Altitude))
 	}
 	chartH := s.h - len(lines) - 1
+	if stab != nil {
+		chartH-- // the strip of stable windows
+	}
 	if chartH >= 4 {
 		legend := s.st.Muted.Render("drag deviation over the flight so far, % · ") + s.st.Accent.Render("line: used by the trend") +
 			s.st.Muted.Render(" · dots: left out (climb, turn, speed change)")
-		lines = append(lines, truncate(legend, s.w), s.deviationChart(s.w, chartH))
+		if stab != nil {
+			legend += s.st.Accent.Render(" · big dots: stable windows")
+		}
+		lines = append(lines, truncate(legend, s.w), s.deviationChart(s.w, chartH, stab))
+		if stab != nil {
+			lines = append(lines, s.stableStrip(stab, s.w))
+		}
 	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.Join(lines, "\n"))
 }
@@ -567,7 +584,7 @@ func (s *flightScreen) computeSpan() (played []int, last time.Time) {
 // deviationChart draws the current flight's drag deviation so far against
 // minutes from its first snapshot: the snapshots the trend uses joined, the
 // ones it leaves out as dots of their own.
-func (s *flightScreen) deviationChart(w, h int) string {
+func (s *flightScreen) deviationChart(w, h int, stab *stability) string {
 	if s.pos == 0 {
 		return placeholder(w, h, "no snapshot yet")
 	}
@@ -594,6 +611,18 @@ func (s *flightScreen) deviationChart(w, h int) string {
 		xTicks: niceTicks(0, maxX, max(1, w/10), func(v float64) string { return strconv.FormatFloat(v, 'f', -1, 64) + " min" }),
 		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f", v) },
 		series: []series{{points: used, line: true, style: s.st.Accent}, {points: out, style: s.st.Muted}}}
+	if stab != nil {
+		// each window's snapshot, drawn as a small block of dots so that it
+		// stands out from the samples' line
+		var big [][2]float64
+		dx, dy := maxX/float64(2*w), (hi-lo)/float64(4*h)
+		for _, p := range stab.windowPoints(t0, s.recs[s.pos-1].Time) {
+			for _, d := range [][2]float64{{0, 0}, {dx, 0}, {0, dy}, {dx, dy}} {
+				big = append(big, [2]float64{p[0] + d[0], p[1] + d[1]})
+			}
+		}
+		spec.series = append(spec.series, series{points: big, style: s.st.Accent})
+	}
 	return spec.render("no data")
 }
 
