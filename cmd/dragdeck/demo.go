@@ -15,7 +15,8 @@ func runDemo(e *env, args []string) error {
 snapshots of every tail, with a few broken rows on purpose), fleet.toml (the
 fleet file: each tail's type, use it with --fleet), types/ (one type file per
 type), events.csv (repairs, washes, shop visits, engine changes), traces/
-(per-minute records of a few whole flights, for replay) and truth.json (what
+(per-minute records of a few whole flights, for replay), recordings/ (1 Hz
+recordings of two whole flights, for extract) and truth.json (what
 was injected per tail: drift, steps, offsets, engines, retrofits, expected
 flags, and the broken rows). The data ends on a fixed date in the past
 (2026-06-30) and runs back --days from it. The same seed gives the same bytes.
@@ -81,6 +82,7 @@ a symbolic link.`,
 		filepath.Join(*out, demo.SnapshotFile), truth.Rows, truth.Rejected, len(truth.Tails), truth.Start, truth.End)
 	fmt.Fprintf(e.stdout, "  %s  %d events\n", filepath.Join(*out, demo.EventsFile), len(truth.Events))
 	fmt.Fprintf(e.stdout, "  %s  %d whole-flight traces\n", filepath.Join(*out, demo.TraceDir), len(truth.Traces))
+	fmt.Fprintf(e.stdout, "  %s  %d 1 Hz recordings of whole flights (for extract)\n", filepath.Join(*out, demo.RecordingDir), len(truth.Recordings))
 	fmt.Fprintf(e.stdout, "  %s  the truth: %d tails should be flagged (fleet median %.2f %%)\n",
 		filepath.Join(*out, demo.TruthFile), flagged, math.Round(truth.FleetMedianPct*100)/100)
 	for _, ty := range truth.Types {

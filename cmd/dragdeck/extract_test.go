@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -11,6 +12,7 @@ import (
 	"time"
 
 	"dragdeck/feed"
+	"dragdeck/feed/demo"
 	"dragdeck/model"
 )
 
@@ -180,4 +182,70 @@ func BenchmarkExtract(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(n*b.N)/b.Elapsed().Seconds(), "samples/s")
+}
+
+// The demo's 1 Hz recordings, through extract: windows only in the steady
+// stretches that truth.json lists (5 s of edge), every steady stretch of 10
+// minutes or more covered, and each snapshot within 0.3 pp of the tail's
+// true deviation, on two seeds and all the demo's types.
+func TestExtractDemoRecordings(t *testing.T) {
+	for _, seed := range []string{"3", "8"} {
+		dir := t.TempDir()
+		if code, _, errs := runArgs("demo", "--out", dir, "--tails", "12", "--days", "200", "--seed", seed); code != 0 {
+			t.Fatal(errs)
+		}
+		var truth demo.Truth
+		js, _ := os.ReadFile(filepath.Join(dir, demo.TruthFile))
+		if err := json.Unmarshal(js, &truth); err != nil || len(truth.Recordings) != 2 {
+			t.Fatalf("%v: %d recordings", err, len(truth.Recordings))
+		}
+		roster, err := feed.LoadFleet(filepath.Join(dir, demo.FleetFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, rt := range truth.Recordings {
+			code, out, errs := runArgs("extract", filepath.Join(dir, rt.File))
+			if code != 0 {
+				t.Fatalf("%s: exit %d %s", rt.File, code, errs)
+			}
+			p := filepath.Join(dir, "w.csv")
+			os.WriteFile(p, []byte(out), 0o644)
+			var recs []feed.Record
+			feed.ReadFile(p, func(r feed.Record) { recs = append(recs, r) }, nil)
+			type span struct{ a, b time.Time }
+			var steady []span
+			for _, s := range rt.Stretches {
+				if s.Kind == "steady" {
+					a, _ := time.Parse(time.RFC3339, s.From)
+					b, _ := time.Parse(time.RFC3339, s.To)
+					steady = append(steady, span{a, b})
+				}
+			}
+			covered := make([]bool, len(steady))
+			for _, r := range recs {
+				half := time.Duration(r.Seconds/2) * time.Second
+				a, b := r.Time.Add(-half), r.Time.Add(half)
+				in := -1
+				for k, sp := range steady {
+					if !a.Before(sp.a.Add(-5*time.Second)) && !b.After(sp.b.Add(5*time.Second)) {
+						in = k
+					}
+				}
+				if in < 0 {
+					t.Errorf("seed %s %s: window %v … %v outside the steady stretches", seed, rt.File, a.Format("15:04:05"), b.Format("15:04:05"))
+					continue
+				}
+				covered[in] = true
+				pt, _, _, why := roster.Analyze(r.Tail, r.Time, r.Snap)
+				if why != "" || math.Abs(pt.DragDevPct-rt.DeviationPct) > 0.3 {
+					t.Errorf("seed %s %s at %v: deviation %.2f %%, truth %.2f %% (%s)", seed, rt.File, r.Time.Format("15:04"), pt.DragDevPct, rt.DeviationPct, why)
+				}
+			}
+			for k, sp := range steady {
+				if sp.b.Sub(sp.a) >= 10*time.Minute && !covered[k] {
+					t.Errorf("seed %s %s: steady stretch %v … %v without a window", seed, rt.File, sp.a.Format("15:04"), sp.b.Format("15:04"))
+				}
+			}
+		}
+	}
 }

@@ -117,8 +117,10 @@ type Truth struct {
 	Tails      []TailTruth  `json:"tails"`
 	BrokenRows []BrokenRow  `json:"broken_rows"`
 	Traces     []TraceTruth `json:"traces"`
-	Events     []Event      `json:"events"`
-	Note       string       `json:"note"`
+	// Recordings are the 1 Hz recordings of whole flights, for extract.
+	Recordings []RecordingTruth `json:"recordings"`
+	Events     []Event          `json:"events"`
+	Note       string           `json:"note"`
 }
 
 type truthLimits struct {

@@ -39,7 +39,7 @@ func prepareDir(dir string, overwrite bool) error {
 		return fmt.Errorf("%s: %w (%s): the demo would overwrite its files; give another folder, or --force to replace an earlier demo there (other files are kept)",
 			dir, ErrNotEmpty, strings.Join(names, ", "))
 	}
-	for _, sub := range []string{TraceDir, TypeDir, filepath.Dir(SnapshotFile)} {
+	for _, sub := range []string{TraceDir, TypeDir, RecordingDir, filepath.Dir(SnapshotFile)} {
 		p := filepath.Join(dir, sub)
 		fi, err := os.Lstat(p)
 		switch {
@@ -57,7 +57,7 @@ func prepareDir(dir string, overwrite bool) error {
 	// What an earlier demo wrote: its fixed files, and the type files and
 	// traces by their patterns.
 	stale := []string{SnapshotFile, FleetFile, EventsFile, TruthFile, "type.toml"}
-	for _, pat := range []string{TypeDir + "/*.toml", TraceDir + "/*.csv"} {
+	for _, pat := range []string{TypeDir + "/*.toml", TraceDir + "/*.csv", RecordingDir + "/*.csv"} {
 		m, _ := filepath.Glob(filepath.Join(dir, pat))
 		for _, p := range m {
 			rel, _ := filepath.Rel(dir, p)

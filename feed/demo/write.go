@@ -197,6 +197,7 @@ func (g *demoGen) newTruth() Truth {
 		Tails:          g.tails,
 		BrokenRows:     []BrokenRow{},
 		Traces:         []TraceTruth{},
+		Recordings:     []RecordingTruth{},
 		Note: "Invented data. Deviations are drag deviation % from the baseline polar at the reference cruise: an excess " +
 			"ΔCD = deviation/100 × reference_cd_baseline, the same at every lift coefficient; expected_flags follow " +
 			"the flag rules (level, growth, step; see the README's method) with the thresholds above and the median recent level of the tail's own type (types).",
@@ -246,6 +247,13 @@ func Write(dir string, cfg Config) (Truth, error) {
 			return truth, err
 		}
 		truth.Traces = append(truth.Traces, TraceTruth{File: TraceDir + "/" + name, Tail: tr.tt.Tail, Flight: tr.flight, Rows: len(rows)})
+	}
+	for _, rec := range g.recordings() {
+		rec.File = RecordingDir + "/" + fmt.Sprintf("%s-%s-%s.csv", rec.Tail, rec.Flight, rec.rows[0].t.Format("20060102"))
+		if err := writeNew(filepath.Join(dir, rec.File), g.recordingBytes(rec)); err != nil {
+			return truth, err
+		}
+		truth.Recordings = append(truth.Recordings, rec)
 	}
 	js, err := json.MarshalIndent(truth, "", "  ")
 	if err != nil {
