@@ -3,6 +3,7 @@ package tui
 import (
 	"math"
 
+	"dragdeck/feed"
 	"dragdeck/feed/demo"
 	"dragdeck/feed/pipeline"
 	"dragdeck/model"
@@ -25,7 +26,12 @@ func DemoData() (*Data, error) {
 	if err != nil {
 		return nil, err
 	}
-	r := pipeline.FromRecords(d.Records, d.Stats, pipeline.Input{Roster: d.Roster, Events: d.Events(),
+	// The snapshots and the 1 Hz recordings of two flights, which the Flight
+	// screen plays with their stable windows.
+	recs := append(append([]feed.Record(nil), d.Records...), d.Recordings...)
+	st := d.Stats
+	st.Add(d.RecordingStats)
+	r := pipeline.FromRecords(recs, st, pipeline.Input{Roster: d.Roster, Events: d.Events(),
 		Config: model.DefaultTrendConfig(), KeepRecords: true})
 	return NewData("built-in demo, invented data", r), nil
 }

@@ -65,3 +65,34 @@ func TestFlightStableWindows(t *testing.T) {
 		t.Errorf("snapshots taken for a recording:\n%s", s.View())
 	}
 }
+
+// The built-in demo holds the demo's 1 Hz recordings: their flights replay
+// on the Flight screen with their stable windows.
+func TestDemoRecordingsReplay(t *testing.T) {
+	d := demoFleet(t)
+	found := 0
+	for _, a := range d.Fleet.Tails {
+		for _, f := range a.Flights {
+			if !strings.HasPrefix(f.Flight, "DDR") {
+				continue
+			}
+			found++
+			recs := d.FlightRecords(a.Tail, f)
+			if len(recs) < 3000 {
+				t.Fatalf("%s %s: %d records", a.Tail, f.Flight, len(recs))
+			}
+			s := newFlightScreen(NewStyles(DefaultTheme))
+			s.SetSize(100, 30)
+			s.Replay(d.Roster, d.Config, a.Tail, f.Flight, recs, 0, a.RecentPct)
+			s.seek(len(recs) / 3)
+			if _, ok := lineWith(s.View(), "stable window"); !ok {
+				if _, ok := lineWith(s.View(), "not stable here"); !ok {
+					t.Errorf("%s %s: no stability line\n%s", a.Tail, f.Flight, s.View())
+				}
+			}
+		}
+	}
+	if found != 2 {
+		t.Errorf("%d recording flights in the built-in demo, want 2", found)
+	}
+}

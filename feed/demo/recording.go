@@ -44,9 +44,10 @@ var recordingPlan = []struct {
 	{"speed change", 60}, {"steady", 600}, {"turbulence", 240}, {"steady", 720},
 }
 
-// recordings makes the demo's recordings: one flight of a drifting tail and
-// one of a steady tail, about 60 days before the end (outside the recent
-// level's 30 days), at 1 Hz from FL100 in the climb to FL100 in the descent.
+// recordings makes the demo's recordings: one night flight of a drifting
+// tail and one of a steady tail, about 60 days before the end (outside the
+// recent level's 30 days), at 1 Hz from FL100 in the climb to FL100 in the
+// descent.
 // They draw from a generator of their own, so the snapshots stay as they
 // are.
 func (g *demoGen) recordings() []RecordingTruth {
@@ -58,7 +59,9 @@ func (g *demoGen) recordings() []RecordingTruth {
 			if tt.Role != role || g.cfg.Days < 90 {
 				continue
 			}
-			dep := g.end.AddDate(0, 0, -60-k).Add(9 * time.Hour)
+			// a night flight: the day's snapshot flights start after 05:00
+			// and end before 20:00, so no other flight of the tail overlaps
+			dep := g.end.AddDate(0, 0, -60-k).Add(20 * time.Minute)
 			out = append(out, g.recording(tt, fmt.Sprintf("DDR%03d", 1+k), dep, rng))
 			break
 		}

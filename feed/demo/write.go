@@ -289,9 +289,14 @@ type Fleet struct {
 	Roster  *model.Roster // the fleet file: each tail's type
 	Type    *model.Type   // the one type flown; nil when the fleet has several
 	Records []feed.Record
-	Rejects []*feed.RowError
-	Stats   feed.Stats
-	Truth   Truth
+	// Recordings are the records of the 1 Hz recordings (Truth.Recordings),
+	// apart from the snapshots, read through the CSV reader as Write writes
+	// them; RecordingStats counts their rows.
+	Recordings     []feed.Record
+	RecordingStats feed.Stats
+	Rejects        []*feed.RowError
+	Stats          feed.Stats
+	Truth          Truth
 }
 
 // Events returns the truth's events by tail, as an events file gives them.
@@ -343,5 +348,22 @@ func NewFleet(cfg Config) (*Fleet, error) {
 		break
 	}
 	d.Stats = r.Stats()
+	for _, rec := range g.recordings() {
+		name := RecordingDir + "/" + rec.Tail + "-" + rec.Flight + ".csv"
+		res := feed.NewReader(bytes.NewReader(g.recordingBytes(rec)), "demo:"+name)
+		for {
+			r, err := res.Next()
+			if err == nil {
+				d.Recordings = append(d.Recordings, r)
+				continue
+			}
+			if err != io.EOF {
+				return nil, fmt.Errorf("%s: %w", name, err) // written by this package: cannot happen
+			}
+			break
+		}
+		d.RecordingStats.Add(res.Stats())
+		d.Truth.Recordings = append(d.Truth.Recordings, rec)
+	}
 	return d, nil
 }
