@@ -31,6 +31,8 @@ type Decoder struct {
 	scratch []byte
 	tails   map[string]string // interned tail and flight names
 	flights map[string]string
+	// the ids of the row before: a recording repeats them on every row
+	lastTail, lastFlight lastID
 
 	stats Stats
 
@@ -261,14 +263,14 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 		return d.reject(n, h.name[colTail], ErrEmpty, "empty")
 	}
 	var why string
-	if rec.Tail, why = internID(d.tails, tail); why != "" {
+	if rec.Tail, why = d.lastTail.get(d.tails, tail); why != "" {
 		return d.reject(n, h.name[colTail], ErrID, why)
 	}
 	if h.idx[colFlight] >= 0 {
 		if len(d.flights) > 1<<16 {
 			clear(d.flights)
 		}
-		if rec.Flight, why = internID(d.flights, f(colFlight)); why != "" {
+		if rec.Flight, why = d.lastFlight.get(d.flights, f(colFlight)); why != "" {
 			return d.reject(n, h.name[colFlight], ErrID, why)
 		}
 	}
@@ -358,6 +360,21 @@ var fieldColumn = map[Field]column{
 }
 
 // intern returns the one shared string for b.
+// lastID is the id of the row before, to skip the map when it repeats.
+type lastID struct{ s string }
+
+// get is internID, or the id of the row before when b is that again.
+func (l *lastID) get(m map[string]string, b []byte) (string, string) {
+	if l.s != "" && l.s == string(b) {
+		return l.s, ""
+	}
+	s, why := internID(m, b)
+	if why == "" {
+		l.s = s
+	}
+	return s, why
+}
+
 // internID returns the one copy of the id b kept in m, judging b (badID)
 // only the first time it is seen; why says why it cannot be used.
 func internID(m map[string]string, b []byte) (s, why string) {
