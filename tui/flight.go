@@ -604,6 +604,18 @@ func (s *flightScreen) deviationChart(w, h int, stab *stability) string {
 			out = append(out, pt)
 		}
 	}
+	if stab != nil && len(used) >= 2 {
+		// A recording's climb and descent samples (no climb rate in the
+		// data) read as drag of ±100 %: the range is the used samples' and
+		// the windows', and those left out beyond it are not drawn.
+		ys = ys[:0]
+		for _, p := range used {
+			ys = append(ys, p[1])
+		}
+		for _, p := range stab.windowPoints(t0, last) {
+			ys = append(ys, p[1])
+		}
+	}
 	lo, hi := span(ys, 0.1, 0.5)
 	used, out = thin(used, 2*w), thin(out, 2*w) // a braille cell is 2 dots wide
 	maxX := math.Max(last.Sub(t0).Minutes(), 1)
