@@ -191,8 +191,10 @@ func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []
 		if j < i {
 			j = i
 		}
-		for j < n && secs(i, j) <= c.MaxSeconds {
-			if why = fits(i, j); why != StableOK {
+		for j < n {
+			// the criteria first: a sample beyond a gap is beyond the
+			// longest window too, and the gap is what ended it
+			if why = fits(i, j); why != StableOK || secs(i, j) > c.MaxSeconds {
 				break
 			}
 			for k := range qs {

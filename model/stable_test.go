@@ -177,3 +177,17 @@ func TestStableReasons(t *testing.T) {
 		}
 	}
 }
+
+// Samples minutes apart (snapshots, not a recording): no window, and the
+// time between them is left out as gaps.
+func TestStableWindowsGaps(t *testing.T) {
+	t0 := time.Date(2026, 3, 1, 10, 0, 0, 0, time.UTC)
+	var s []Sample
+	for k := 0; k < 3; k++ {
+		s = append(s, Sample{Time: t0.Add(time.Duration(20*k) * time.Minute), Mach: 0.78, Altitude: 10000, SAT: 220, FuelFlow: 0.6})
+	}
+	ws, left := StableWindows(s, DefaultStableCriteria())
+	if len(ws) != 0 || left[UnstableGap] != 2400 || left[StableOK] != 0 {
+		t.Errorf("windows %v, left %v", ws, left)
+	}
+}

@@ -111,6 +111,7 @@ type extractor struct {
 
 	stats            feed.Stats
 	nFlights, nWins  int
+	steps, gapSteps  int // steps between samples, and those longer than MaxGap
 	samples          int
 	left             [model.UnstableShort + 1]float64
 	row              []byte
@@ -170,6 +171,12 @@ func (x *extractor) flush(f *flightBuf) {
 	}
 	x.nFlights++
 	x.samples += len(f.samples)
+	for i := 1; i < len(f.samples); i++ {
+		x.steps++
+		if f.samples[i].Time.Sub(f.samples[i-1].Time).Seconds() > x.c.MaxGap {
+			x.gapSteps++
+		}
+	}
 	ws, left := model.StableWindows(f.samples, x.c)
 	for k := range x.left {
 		x.left[k] += left[k]
@@ -246,6 +253,9 @@ func (x *extractor) summary() {
 	}
 	fmt.Fprintf(x.e.stderr, "dragdeck extract: %d flight(s), %d samples (%d rows read, %d rejected), %d window(s); time left out: %s\n",
 		x.nFlights, x.samples, x.stats.Read, x.stats.Rejected, x.nWins, left)
+	if x.steps > 0 && 2*x.gapSteps > x.steps {
+		fmt.Fprintf(x.e.stderr, "dragdeck extract: note: most rows are more than %g s apart: snapshots rather than a recording? extract needs a row every few seconds\n", x.c.MaxGap)
+	}
 }
 
 // durationText writes seconds as h/min/s.

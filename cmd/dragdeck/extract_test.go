@@ -142,6 +142,22 @@ func TestExtractRecording(t *testing.T) {
 	}
 }
 
+// Snapshots given to extract (rows minutes apart) give no window and a
+// note that says what they look like.
+func TestExtractOnSnapshots(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "snaps.csv")
+	var b strings.Builder
+	b.WriteString("time,tail,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n")
+	for i := 0; i < 20; i++ {
+		fmt.Fprintf(&b, "2026-03-01T%02d:%02d:00Z,DD101,65000,35000,0.78,-54.3,2380\n", 10+i/3, 20*(i%3))
+	}
+	os.WriteFile(p, []byte(b.String()), 0o644)
+	code, out, errs := runArgs("extract", p)
+	if code != 0 || strings.Count(out, "\n") > 0 || !strings.Contains(errs, "snapshots rather than a recording") {
+		t.Errorf("exit %d, out %q, stderr %s", code, out, errs)
+	}
+}
+
 func TestExtractFlags(t *testing.T) {
 	for _, args := range [][]string{{"extract"}, {"extract", "--min-seconds", "0", "x.csv"},
 		{"extract", "--min-seconds", "300", "--max-seconds", "200", "x.csv"}, {"extract", "--max-bank-deg", "nan", "x.csv"}} {
