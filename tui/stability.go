@@ -18,17 +18,16 @@ import (
 // extract would write it. Computed for the current flight, kept until it
 // or its records change.
 type stability struct {
-	first       *feed.Record // &recs[0] when made
-	from, n     int          // the flight's records: recs[idx[0]]… with len(recs) == n
-	idx         []int        // indexes into recs of the flight's samples
-	recording   bool         // samples close enough for windows
-	windows     []model.Window
-	why         []model.Unstable // per sample of idx
-	win         []int            // per sample of idx: its window, −1 outside
-	dev         []float64        // per window: its snapshot's drag deviation, %
-	mid         []time.Time      // per window: its snapshot's time
-	t0, tEnd    time.Time
-	recordingAt float64 // median step between samples, s
+	first     *feed.Record // &recs[0] when made
+	n         int          // len(recs) when made
+	idx       []int        // indexes into recs of the flight's samples
+	recording bool         // samples close enough for windows (median step ≤ the longest gap)
+	windows   []model.Window
+	why       []model.Unstable // per sample of idx
+	win       []int            // per sample of idx: its window, −1 outside
+	dev       []float64        // per window: its snapshot's drag deviation, %
+	mid       []time.Time      // per window: its snapshot's time
+	t0, tEnd  time.Time
 }
 
 // stableOf returns the stability of the current flight, made anew when the
@@ -55,7 +54,7 @@ func (s *flightScreen) stableOf() *stability {
 		}
 		idx, prev = append(idx, j), r
 	}
-	*c = stability{first: &s.recs[0], n: len(s.recs), from: idx[0], idx: idx,
+	*c = stability{first: &s.recs[0], n: len(s.recs), idx: idx,
 		t0: s.recs[idx[0]].Time, tEnd: s.recs[idx[len(idx)-1]].Time}
 	crit := model.DefaultStableCriteria()
 	if len(idx) < 3 {
@@ -65,8 +64,7 @@ func (s *flightScreen) stableOf() *stability {
 	for k := 1; k < len(idx); k++ {
 		steps = append(steps, s.recs[idx[k]].Time.Sub(s.recs[idx[k-1]].Time).Seconds())
 	}
-	c.recordingAt = model.Median(steps)
-	if c.recordingAt > crit.MaxGap {
+	if model.Median(steps) > crit.MaxGap {
 		return c // snapshots, not a recording
 	}
 	c.recording = true
