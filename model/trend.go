@@ -53,7 +53,16 @@ const (
 // EngineSeries returns the engine series of pts: the points with an engine
 // deviation, with it as their DevPct (a new slice; pts is not changed).
 func EngineSeries(pts []TrendPoint) []TrendPoint {
-	var out []TrendPoint
+	n := 0
+	for i := range pts {
+		if pts[i].HasEngine {
+			n++
+		}
+	}
+	if n == 0 {
+		return nil
+	}
+	out := make([]TrendPoint, 0, n)
 	for _, p := range pts {
 		if p.HasEngine {
 			p.DevPct = p.EngineDevPct
@@ -83,10 +92,11 @@ func (c *TrendConfig) NewPoint(t time.Time, f string, s Snapshot, p Point) Trend
 }
 
 // PolarPoints returns the polar-fit points of the usable points among pts
-// taken at or after from (zero: all).
+// (in time order) taken at or after from (zero: all).
 func PolarPoints(pts []TrendPoint, c TrendConfig, from time.Time) []PolarPoint {
-	var out []PolarPoint
-	for _, p := range pts {
+	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(from) }) // pts in time order
+	out := make([]PolarPoint, 0, len(pts)-i)
+	for _, p := range pts[i:] {
 		if c.Usable(p) == "" && !p.Time.Before(from) {
 			out = append(out, PolarPoint{CL: float64(p.CL), CDMeasured: float64(p.CDLessWave)})
 		}
@@ -269,7 +279,7 @@ func NewFlight(prevFlight string, prevTime time.Time, flight string, t time.Time
 // starts when the flight name changes or the gap exceeds gapHours; each
 // flight's deviation is the median of its snapshots.
 func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
-	var out []FlightPoint
+	out := make([]FlightPoint, 0, len(pts)/2+1) // most flights have two snapshots or more
 	var devs []float64
 	start := 0
 	flush := func(end int) {
