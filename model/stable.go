@@ -179,6 +179,10 @@ func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []
 		}
 		return StableOK
 	}
+	nq := len(qs) // the queues in use: N1's only when recorded
+	if !hasN1 {
+		nq--
+	}
 	reset := func() {
 		for k := range qs {
 			qs[k].reset()
@@ -197,7 +201,7 @@ func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []
 			if why = fits(i, j); why != StableOK || secs(i, j) > c.MaxSeconds {
 				break
 			}
-			for k := range qs {
+			for k := 0; k < nq; k++ {
 				qs[k].push(cols[k], j)
 			}
 			ffSum += s[j].FuelFlow
@@ -228,7 +232,7 @@ func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []
 			reset()
 			continue
 		}
-		for k := range qs {
+		for k := 0; k < nq; k++ {
 			qs[k].drop(i)
 		}
 		// The fuel-flow range is judged against the window's mean, which
