@@ -213,6 +213,7 @@ func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part) 
 	r := NewReader(src, path)
 	r.d = partDecoder(path, hdr, opt)
 	r.d.stopAtHeader = true
+	r.offBase = p.start
 	err := r.each(func(rec Record) { p.recs = append(p.recs, rec) }, func(e *RowError) { p.rejects = append(p.rejects, e) })
 	switch {
 	case errors.Is(err, errHeaderInPart):
@@ -233,7 +234,7 @@ func readFrom(f *os.File, path string, hdr *header, opt ReadOptions, from, size 
 	}
 	r := NewReader(src, path)
 	r.d = partDecoder(path, hdr, opt)
-	r.base = base
+	r.base, r.offBase = base, from
 	r.d.Notice = func(s string) {
 		if len(res.Notices) < maxNotices {
 			res.Notices = append(res.Notices, s)

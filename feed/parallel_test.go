@@ -7,6 +7,7 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+	"time"
 )
 
 // ReadFileParallel hands on exactly what ReadFileWith does, in the same
@@ -61,6 +62,10 @@ func TestReadFileParallelSameAsOne(t *testing.T) {
 			for i := range gotRecs {
 				if !reflect.DeepEqual(gotRecs[i], wantRecs[i]) {
 					t.Fatalf("record %d: %+v, one decoder %+v", i, gotRecs[i], wantRecs[i])
+				}
+				// Offset is where the row's line starts in the file
+				if at := gotRecs[i].Time.Format(time.RFC3339); !strings.HasPrefix(data[gotRecs[i].Offset:], at) {
+					t.Fatalf("record %d at offset %d: %.30q, want it to start with %s", i, gotRecs[i].Offset, data[gotRecs[i].Offset:], at)
 				}
 			}
 		})

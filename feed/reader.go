@@ -20,8 +20,11 @@ type Reader struct {
 	br   *bufio.Reader
 	line int // lines read, plus base: the line number of the last line
 	base int // lines before the part of the file this reader reads
-	long []byte
-	done error // sticky final error (io.EOF, *FileError or an I/O error)
+	// pos is the bytes read, offBase the offset of the part this reader
+	// reads in its file, start where the last line began (for Offset).
+	pos, offBase, start int64
+	long                []byte
+	done                error // sticky final error (io.EOF, *FileError or an I/O error)
 }
 
 // NewReader returns a reader of r; name is used in errors.
@@ -51,6 +54,7 @@ func (r *Reader) Next() (Record, error) {
 		default:
 			rec, ok, err := r.d.Line(line, r.line+r.base)
 			if ok {
+				rec.Offset = r.offBase + r.start
 				return rec, nil
 			}
 			if err != nil {
@@ -73,7 +77,9 @@ func (r *Reader) keep(err error) error {
 // readLine returns the next physical line without its '\n', or nil for a
 // line longer than maxLine (skipped whole), or io.EOF.
 func (r *Reader) readLine() ([]byte, error) {
+	r.start = r.pos
 	line, err := r.br.ReadSlice('\n')
+	r.pos += int64(len(line))
 	if err == nil || (err == io.EOF && len(line) > 0) {
 		r.line++
 		return trimNL(line), nil
@@ -88,6 +94,7 @@ func (r *Reader) readLine() ([]byte, error) {
 	tooLong := false
 	for {
 		line, err = r.br.ReadSlice('\n')
+		r.pos += int64(len(line))
 		if !tooLong {
 			r.long = append(r.long, line...)
 			if len(r.long) > maxLine {

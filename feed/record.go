@@ -16,6 +16,7 @@ type Record struct {
 	Snap   model.Snapshot
 	File   string // the file it came from
 	Line   int    // 1-based line where the row starts
+	Offset int64  // byte offset in the file where the row's line starts
 	// Samples and Seconds are the window a snapshot of extract stands for
 	// (0 when the file has no such columns).
 	Samples int

@@ -9,7 +9,7 @@ import (
 	"time"
 )
 
-// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 96
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 104
 // bytes, and a million of them are a year of a large fleet.
 type TrendPoint struct {
 	Time             time.Time
@@ -20,6 +20,9 @@ type TrendPoint struct {
 	// when HasEngine. The engine series is made of the points that have
 	// one (EngineSeries), so it needs no copy of them.
 	EngineDevPct float64
+	// Ref says where the snapshot's row is, for reading it again (a
+	// replay): set by whoever read it; 0 when unknown.
+	Ref int64
 
 	// For the tail's own polar and its typical cruise (single precision is
 	// ample for both).

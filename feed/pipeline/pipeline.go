@@ -10,6 +10,7 @@ package pipeline
 
 import (
 	"runtime"
+	"slices"
 	"sort"
 	"sync"
 	"sync/atomic"
@@ -29,7 +30,11 @@ type Input struct {
 	Events map[string][]model.Event // by tail (may be nil)
 	Config model.TrendConfig
 
-	KeepRecords bool                     // keep every accepted record, by tail, for replay
+	// KeepRecords makes the records of a flight available for replay
+	// (FlightRecords): read from files (Run), each point keeps where its
+	// row is and the flight's rows are read again on demand; given in
+	// memory (FromRecords), the records are kept.
+	KeepRecords bool
 	Progress    *atomic.Int64            // bytes read so far, for a progress bar (may be nil)
 	Reject      func(*feed.RowError)     // every rejected row, one at a time (may be nil)
 	Filter      func(r feed.Record) bool // keep only the records it accepts (nil: all)
@@ -48,8 +53,9 @@ type Result struct {
 	// (model.EngineSeries).
 	Engine model.Fleet
 	// Records are the accepted records by tail in time order, when
-	// Input.KeepRecords is set, as read (Roster.Analyze applies the fleet
-	// file's fuel-flow correction when they are analysed again).
+	// Input.KeepRecords is set and they were given in memory (FromRecords),
+	// as read (Roster.Analyze applies the fleet file's fuel-flow correction
+	// when they are analysed again).
 	Records     map[string][]feed.Record
 	Files       []feed.FileResult // one per path, in order
 	Stats       feed.Stats        // rows of all files
@@ -60,7 +66,17 @@ type Result struct {
 	Duplicates int
 
 	tailIdx, engineIdx map[string]int // place of each tail in Fleet.Tails and Engine.Tails
+	// refs: the points say where their rows are (TrendPoint.Ref: the
+	// file's index in paths, and the row's offset), for FlightRecords.
+	refs    bool
+	paths   []string
+	fileIdx map[string]int
+	opt     feed.ReadOptions
 }
+
+// refBits is where the file's index starts in a TrendPoint.Ref; below it
+// is the row's byte offset + 1 (files up to a terabyte).
+const refBits = 40
 
 // Failed returns the files that could not be read (missing, no header, a
 // required column missing). Events files found among the paths are not
@@ -113,6 +129,9 @@ func index(tails []model.TailAssessment) map[string]int {
 // from the flight's first snapshot while the flight name holds and no gap
 // exceeds the configured flight gap. Nil when records were not kept.
 func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
+	if r.Records == nil && r.refs {
+		return r.readFlight(tail, f)
+	}
 	recs := r.Records[tail]
 	i := sort.Search(len(recs), func(i int) bool { return !recs[i].Time.Before(f.Time) })
 	var out []feed.Record
@@ -123,6 +142,45 @@ func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 		}
 		out = append(out, rec)
 	}
+	return out
+}
+
+// readFlight reads the rows of flight f of the tail again from their files
+// (the points say where they are), in time order.
+func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
+	pts := r.Points[tail]
+	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(f.Time) })
+	byFile := map[int][]int64{}
+	var order []int
+	for k := i; k < len(pts); k++ {
+		p := pts[k]
+		if p.Flight != f.Flight || (k > i && model.NewFlight(f.Flight, pts[k-1].Time, p.Flight, p.Time, r.Config.FlightGap)) {
+			break
+		}
+		if p.Ref == 0 {
+			continue
+		}
+		fi := int(p.Ref >> refBits)
+		if _, ok := byFile[fi]; !ok {
+			order = append(order, fi)
+		}
+		byFile[fi] = append(byFile[fi], p.Ref&(1<<refBits-1)-1)
+	}
+	var out []feed.Record
+	slices.Sort(order)
+	for _, fi := range order {
+		recs, err := feed.ReadRows(r.paths[fi], byFile[fi], len(r.Files[fi].Notices) == 0, r.opt)
+		if err != nil {
+			continue // the file changed or went since: the rows it still has are shown
+		}
+		for _, rec := range recs {
+			if rec.Tail == tail {
+				out = append(out, rec)
+			}
+		}
+	}
+	sort.SliceStable(out, func(a, b int) bool { return out[a].Time.Before(out[b].Time) })
+	out, _ = dedupe(out, func(r feed.Record) time.Time { return r.Time })
 	return out
 }
 
@@ -145,6 +203,16 @@ const batchSize = 4096
 // read all the same.
 func Run(in Input) *Result {
 	r := newResult(in, len(in.Paths))
+	if in.KeepRecords { // rows are read again on demand: the points keep where they are
+		r.Records, r.refs, r.paths = nil, true, in.Paths
+		r.fileIdx = make(map[string]int, len(in.Paths))
+		for i, p := range in.Paths {
+			if _, ok := r.fileIdx[p]; !ok {
+				r.fileIdx[p] = i
+			}
+		}
+		r.opt = feed.ReadOptions{CheckTail: feed.RosterCheck(r.Roster)}
+	}
 	batches := make(chan []feed.Record, 8)
 	free := make(chan []feed.Record, 16) // batches to reuse
 	getBatch := func() []feed.Record {
@@ -276,7 +344,13 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	r.Points[rec.Tail] = append(r.Points[rec.Tail], r.Config.NewPoint(rec.Time, rec.Flight, snap, p))
+	tp := r.Config.NewPoint(rec.Time, rec.Flight, snap, p)
+	if r.refs {
+		if fi, known := r.fileIdx[rec.File]; known {
+			tp.Ref = int64(fi)<<refBits | (rec.Offset + 1)
+		}
+	}
+	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
 	}

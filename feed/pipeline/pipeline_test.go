@@ -3,6 +3,7 @@ package pipeline
 import (
 	"os"
 	"path/filepath"
+	"reflect"
 	"slices"
 	"testing"
 
@@ -158,5 +159,50 @@ func TestTailLookup(t *testing.T) {
 	check("reordered")
 	if _, ok := r.Tail("NOSUCH"); ok {
 		t.Error("found a tail that is not in the fleet")
+	}
+}
+
+// Read from files with KeepRecords, a flight's records are read back on
+// demand from where its points say their rows are, and are the records the
+// in-memory run keeps: the same rows, lines and offsets, in the same order,
+// for every flight of every tail.
+func TestFlightRecordsReadBack(t *testing.T) {
+	cfg := demo.Config{Tails: 4, Days: 60, Seed: 6}
+	d, err := demo.NewFleet(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, cfg); err != nil {
+		t.Fatal(err)
+	}
+	in := input()
+	in.KeepRecords, in.Roster = true, d.Roster
+	mem := FromRecords(d.Records, d.Stats, in)
+	fin := input(filepath.Join(dir, demo.SnapshotFile))
+	fin.KeepRecords, fin.Roster = true, d.Roster
+	file := Run(fin)
+	if file.Records != nil {
+		t.Fatal("a run on files keeps every record in memory")
+	}
+	flights := 0
+	for _, a := range mem.Fleet.Tails {
+		for _, f := range a.Flights {
+			want, got := mem.FlightRecords(a.Tail, f), file.FlightRecords(a.Tail, f)
+			if len(want) == 0 || len(got) != len(want) {
+				t.Fatalf("%s %s: %d records read back, %d kept", a.Tail, f.Flight, len(got), len(want))
+			}
+			for k := range got {
+				w := want[k]
+				w.File = got[k].File
+				if !reflect.DeepEqual(got[k], w) {
+					t.Fatalf("%s %s record %d: %+v, kept %+v", a.Tail, f.Flight, k, got[k], w)
+				}
+			}
+			flights++
+		}
+	}
+	if flights < 50 {
+		t.Errorf("only %d flights compared", flights)
 	}
 }
