@@ -151,6 +151,7 @@ func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
 	pts := r.Points[tail]
 	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(f.Time) })
 	byFile := map[int][]int64{}
+	at := map[int64]time.Time{} // Ref → the point's time, to know the row again
 	var order []int
 	for k := i; k < len(pts); k++ {
 		p := pts[k]
@@ -165,16 +166,18 @@ func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
 			order = append(order, fi)
 		}
 		byFile[fi] = append(byFile[fi], p.Ref&(1<<refBits-1)-1)
+		at[p.Ref] = p.Time
 	}
 	var out []feed.Record
 	slices.Sort(order)
 	for _, fi := range order {
 		recs, err := feed.ReadRows(r.paths[fi], byFile[fi], len(r.Files[fi].Notices) == 0, r.opt)
 		if err != nil {
-			continue // the file changed or went since: the rows it still has are shown
+			continue // the file went since it was read: its rows are not shown
 		}
 		for _, rec := range recs {
-			if rec.Tail == tail {
+			// the same tail and time, or the file changed since it was read
+			if t, ok := at[int64(fi)<<refBits|(rec.Offset+1)]; ok && rec.Tail == tail && rec.Time.Equal(t) {
 				out = append(out, rec)
 			}
 		}
