@@ -540,19 +540,29 @@ func (g *demoGen) appendRow(b []byte, r demoRow) []byte {
 }
 
 func appendRow(b []byte, r demoRow) []byte {
+	b = appendFields(r, b, num{r.w, 0}, num{r.altFt, 0}, num{r.mach, 3}, num{r.satC, 1}, num{r.ffKgph, 0},
+		num{r.bankDeg, 1}, num{r.vsFpm, 0}, num{r.accelKtPerMin, 2})
+	return append(b, '\n')
+}
+
+// num is a number of a written row with its decimals.
+type num struct {
+	v    float64
+	prec int
+}
+
+// appendFields appends r's time, tail and flight and then the numbers, comma-separated.
+func appendFields(r demoRow, b []byte, nums ...num) []byte {
 	b = r.t.AppendFormat(b, time.RFC3339)
 	b = append(b, ',')
 	b = append(b, r.tail...)
 	b = append(b, ',')
 	b = append(b, r.flight...)
-	for _, f := range []struct {
-		v    float64
-		prec int
-	}{{r.w, 0}, {r.altFt, 0}, {r.mach, 3}, {r.satC, 1}, {r.ffKgph, 0}, {r.bankDeg, 1}, {r.vsFpm, 0}, {r.accelKtPerMin, 2}} {
+	for _, f := range nums {
 		b = append(b, ',')
 		b = strconv.AppendFloat(b, f.v, 'f', f.prec, 64)
 	}
-	return append(b, '\n')
+	return b
 }
 
 // brokenKinds are the defects written into the demo file, one per broken

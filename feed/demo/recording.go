@@ -151,18 +151,7 @@ func (g *demoGen) recordingBytes(rec RecordingTruth) []byte {
 	b.WriteByte('\n')
 	var buf []byte
 	for _, r := range rec.rows {
-		buf = r.t.AppendFormat(buf[:0], time.RFC3339)
-		buf = append(buf, ',')
-		buf = append(buf, r.tail...)
-		buf = append(buf, ',')
-		buf = append(buf, r.flight...)
-		for _, f := range []struct {
-			v    float64
-			prec int
-		}{{r.w, 0}, {r.altFt, 0}, {r.mach, 4}, {r.satC, 2}, {r.ffKgph, 1}, {r.bankDeg, 1}} {
-			buf = append(buf, ',')
-			buf = strconv.AppendFloat(buf, f.v, 'f', f.prec, 64)
-		}
+		buf = appendFields(r, buf[:0], num{r.w, 0}, num{r.altFt, 0}, num{r.mach, 4}, num{r.satC, 2}, num{r.ffKgph, 1}, num{r.bankDeg, 1})
 		if rec.fanSpeed {
 			buf = append(buf, ',')
 			if r.n1 > 0 {

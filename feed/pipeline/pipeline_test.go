@@ -71,21 +71,7 @@ func TestRunBrokenFile(t *testing.T) {
 // FromRecords on the in-memory demo gives the same assessment as Run on the
 // same snapshots written to a file, and keeps records for replay.
 func TestFromRecordsMatchesRun(t *testing.T) {
-	cfg := demo.Config{Tails: 5, Days: 120, Seed: 4}
-	d, err := demo.NewFleet(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	dir := t.TempDir()
-	if _, err := demo.Write(dir, cfg); err != nil {
-		t.Fatal(err)
-	}
-	in := input()
-	in.KeepRecords, in.Roster = true, d.Roster
-	mem := FromRecords(d.Records, d.Stats, in)
-	fin := input(filepath.Join(dir, demo.SnapshotFile))
-	fin.Roster = d.Roster
-	file := Run(fin)
+	mem, file := memAndFile(t, demo.Config{Tails: 5, Days: 120, Seed: 4}, false)
 	for i, a := range mem.Fleet.Tails {
 		b := file.Fleet.Tails[i]
 		if a.Tail != b.Tail || a.RecentPct != b.RecentPct || a.Points != b.Points {
@@ -167,21 +153,7 @@ func TestTailLookup(t *testing.T) {
 // in-memory run keeps: the same rows, lines and offsets, in the same order,
 // for every flight of every tail.
 func TestFlightRecordsReadBack(t *testing.T) {
-	cfg := demo.Config{Tails: 4, Days: 60, Seed: 6}
-	d, err := demo.NewFleet(cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	dir := t.TempDir()
-	if _, err := demo.Write(dir, cfg); err != nil {
-		t.Fatal(err)
-	}
-	in := input()
-	in.KeepRecords, in.Roster = true, d.Roster
-	mem := FromRecords(d.Records, d.Stats, in)
-	fin := input(filepath.Join(dir, demo.SnapshotFile))
-	fin.KeepRecords, fin.Roster = true, d.Roster
-	file := Run(fin)
+	mem, file := memAndFile(t, demo.Config{Tails: 4, Days: 60, Seed: 6}, true)
 	if file.Records != nil {
 		t.Fatal("a run on files keeps every record in memory")
 	}
@@ -205,4 +177,24 @@ func TestFlightRecordsReadBack(t *testing.T) {
 	if flights < 50 {
 		t.Errorf("only %d flights compared", flights)
 	}
+}
+
+// memAndFile runs the pipeline on the in-memory demo of cfg (keeping its
+// records) and on the same demo written to a file (keeping records for
+// replay when keep).
+func memAndFile(t *testing.T, cfg demo.Config, keep bool) (mem, file *Result) {
+	t.Helper()
+	d, err := demo.NewFleet(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	if _, err := demo.Write(dir, cfg); err != nil {
+		t.Fatal(err)
+	}
+	in := input()
+	in.KeepRecords, in.Roster = true, d.Roster
+	fin := input(filepath.Join(dir, demo.SnapshotFile))
+	fin.KeepRecords, fin.Roster = keep, d.Roster
+	return FromRecords(d.Records, d.Stats, in), Run(fin)
 }
