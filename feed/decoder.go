@@ -2,9 +2,11 @@ package feed
 
 import (
 	"bytes"
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"math"
+	"math/bits"
 	"strconv"
 	"time"
 )
@@ -33,6 +35,8 @@ type Decoder struct {
 	flights map[string]string
 	// the ids of the row before: a recording repeats them on every row
 	lastTail, lastFlight lastID
+	// the day of the row before: its rows share it too
+	day dayCache
 
 	stats Stats
 
@@ -166,23 +170,73 @@ func isHeader(fields [][]byte) bool {
 	return t && tail
 }
 
+// splitPlain splits a line with no quote in one pass over its bytes (the
+// fields of a snapshot row are short, so one pass beats a search per
+// field), eight bytes at a time: a word with neither a comma nor a quote
+// is skipped whole. It reports false, with d.fields to be discarded, at a
+// quote.
+func (d *Decoder) splitPlain(rec []byte) bool {
+	start, i := 0, 0
+	for ; i+8 <= len(rec); i += 8 {
+		w := binary.LittleEndian.Uint64(rec[i:])
+		m := byteMask(w, ',') | byteMask(w, '"')
+		for m != 0 {
+			k := i + bits.TrailingZeros64(m)/8
+			if rec[k] == '"' {
+				return false
+			}
+			d.appendField(rec[start:k])
+			start = k + 1
+			m &= m - 1
+		}
+	}
+	for ; i < len(rec); i++ {
+		switch rec[i] {
+		case ',':
+			d.appendField(rec[start:i])
+			start = i + 1
+		case '"':
+			return false
+		}
+	}
+	d.appendField(rec[start:])
+	return true
+}
+
+// byteMask has the top bit of each byte of w that equals c set, and no
+// other bit (exact per byte, with no borrow from one byte to the next).
+func byteMask(w uint64, c byte) uint64 {
+	const lo7 = 0x7f7f7f7f7f7f7f7f
+	x := w ^ (0x0101010101010101 * uint64(c))
+	return ^((x&lo7 + lo7) | x | lo7)
+}
+
+// appendField adds one unquoted field, trimmed as bytes.TrimSpace trims.
+func (d *Decoder) appendField(f []byte) {
+	if !plainField(f) {
+		f = bytes.TrimSpace(f)
+	}
+	d.fields = append(d.fields, f)
+}
+
+// plainField says that a field neither starts nor ends with a space or a
+// non-ASCII byte, so that bytes.TrimSpace would return it as it is: the
+// usual field, checked inline in the split loop.
+func plainField(f []byte) bool {
+	n := len(f)
+	return n > 0 && f[0]-'!' < 0x7f-'!' && f[n-1]-'!' < 0x7f-'!'
+}
+
 // split splits one line into d.fields by RFC 4180 rules, and is the one
 // place that knows them. Unquoted fields are trimmed of spaces; quoted
 // fields keep their content with "" as one quote. On a quoting error it
 // returns the reason and the index of the field at fault.
 func (d *Decoder) split(rec []byte) (string, int) {
 	d.fields = d.fields[:0]
-	if bytes.IndexByte(rec, '"') < 0 { // fast path: no quoting
-		for {
-			i := bytes.IndexByte(rec, ',')
-			if i < 0 {
-				d.fields = append(d.fields, bytes.TrimSpace(rec))
-				return "", 0
-			}
-			d.fields = append(d.fields, bytes.TrimSpace(rec[:i]))
-			rec = rec[i+1:]
-		}
+	if d.splitPlain(rec) { // fast path: no quoting
+		return "", 0
 	}
+	d.fields = d.fields[:0]
 	if cap(d.scratch) < len(rec) {
 		d.scratch = make([]byte, 0, len(rec))
 	}
@@ -246,13 +300,13 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	if len(tf) == 0 {
 		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
 	}
-	t, ok := fastTime(tf)
+	t, ok := d.day.time(tf)
 	var err error
 	if !ok {
 		t, err = time.Parse(time.RFC3339, string(tf))
-	}
-	if _, off := t.Zone(); err == nil && (off <= -24*3600 || off >= 24*3600) {
-		err = errors.New("offset of 24 h or more") // RFC 3339 offsets have hours 00–23
+		if _, off := t.Zone(); err == nil && (off <= -24*3600 || off >= 24*3600) {
+			err = errors.New("offset of 24 h or more") // RFC 3339 offsets have hours 00–23
+		}
 	}
 	if err != nil {
 		return d.reject(n, h.name[colTime], ErrTime, fmt.Sprintf("%s is not an RFC 3339 time such as 2026-03-01T10:22:00Z", quoteField(tf)))

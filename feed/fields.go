@@ -51,6 +51,11 @@ var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
 // the same value strconv.ParseFloat gives; fast is false otherwise, and the
 // caller asks strconv.
 func parseDecimal(b []byte) (v float64, plain, fast bool) {
+	if len(b) <= 18 { // the usual field: no digit can overflow m
+		if v, ok := parseShort(b); ok {
+			return v, true, true
+		}
+	}
 	i := 0
 	neg := false
 	if i < len(b) && (b[i] == '+' || b[i] == '-') {
@@ -126,6 +131,43 @@ func parseDecimal(b []byte) (v float64, plain, fast bool) {
 	return v, true, true
 }
 
+// parseShort is parseDecimal's path for a field of at most 18 bytes with
+// no exponent, in one loop without the overflow bookkeeping (18 digits fit
+// a uint64); ok is false where it does not apply, and the full path
+// decides.
+func parseShort(b []byte) (v float64, ok bool) {
+	i, neg := 0, false
+	if len(b) > 0 && (b[0] == '-' || b[0] == '+') {
+		neg, i = b[0] == '-', 1
+	}
+	var m uint64
+	digits, exp := 0, 0
+	for ; i < len(b); i++ {
+		c := b[i] - '0'
+		if c > 9 {
+			break
+		}
+		m, digits = m*10+uint64(c), digits+1
+	}
+	if i < len(b) && b[i] == '.' {
+		for i++; i < len(b); i++ {
+			c := b[i] - '0'
+			if c > 9 {
+				break
+			}
+			m, digits, exp = m*10+uint64(c), digits+1, exp-1
+		}
+	}
+	if digits == 0 || i != len(b) || m > 1<<53 || exp < -22 {
+		return 0, false
+	}
+	v = float64(m) / pow10[-exp]
+	if neg {
+		v = -v
+	}
+	return v, true
+}
+
 // quoteField quotes a field for a message, cut to 40 bytes: a hostile file
 // can hold a 300-digit number or a field of megabytes.
 func quoteField(b []byte) string {
@@ -180,6 +222,40 @@ func fastTime(b []byte) (time.Time, bool) {
 		return time.Time{}, false
 	}
 	return time.Date(y, time.Month(mo), d, h, mi, s, 0, time.UTC), true
+}
+
+// dayCache is fastTime for a run of rows on one day: the rows of a
+// recording (and most of an export) share their date, so the date is read
+// and checked once, and each row adds its time of day to the day's
+// midnight. It gives the same instant as fastTime (the same Time value).
+type dayCache struct {
+	key [11]byte // "2026-03-01T" of the day held
+	day time.Time
+	set bool
+}
+
+func (c *dayCache) time(b []byte) (time.Time, bool) {
+	if c.set && len(b) == 20 && string(b[:11]) == string(c.key[:]) && b[13] == ':' && b[16] == ':' && b[19] == 'Z' {
+		h, mi, s := twoDigits(b[11], b[12]), twoDigits(b[14], b[15]), twoDigits(b[17], b[18])
+		if h >= 0 && h <= 23 && mi >= 0 && mi <= 59 && s >= 0 && s <= 59 {
+			return c.day.Add(time.Duration(h*3600+mi*60+s) * time.Second), true
+		}
+		return time.Time{}, false
+	}
+	t, ok := fastTime(b)
+	if ok {
+		copy(c.key[:], b[:11])
+		c.day, c.set = time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC), true
+	}
+	return t, ok
+}
+
+// twoDigits is the number written by two ASCII digits, or −1.
+func twoDigits(a, b byte) int {
+	if a-'0' > 9 || b-'0' > 9 {
+		return -1
+	}
+	return int(a-'0')*10 + int(b-'0')
 }
 
 // daysIn is the number of days of month m in year y (Gregorian).

@@ -91,7 +91,8 @@ func TestRepeatedHeader(t *testing.T) {
 func TestParseDecimalMatchesStrconv(t *testing.T) {
 	cases := []string{"0", "-0", "65000", "0.78", "-54.3", "2380", "6.5e4", "+65000.", ".5e5", "6.5E+04",
 		"0.000123", "123456789012345678", "1234567890123456789012", "9007199254740993", "1e22", "1e23", "1e-22", "1e-23",
-		"3.141592653589793238", "0.1", "0.30000000000000004", "100000000000000000000000", "000123.4500", "1e400", "4.9e-324"}
+		"3.141592653589793238", "0.1", "0.30000000000000004", "100000000000000000000000", "000123.4500", "1e400", "4.9e-324",
+		"-.5", "5.", "+0.0", "-0.000", "9007199254740992", "0.0000000000000000001", "00000000000000000.1"}
 	rng := rand.New(rand.NewPCG(5, 6))
 	for i := 0; i < 20000; i++ {
 		cases = append(cases, strconv.FormatFloat((rng.Float64()-0.5)*math.Pow(10, float64(rng.IntN(12)-4)), 'f', rng.IntN(8), 64))
@@ -112,6 +113,49 @@ func TestParseDecimalMatchesStrconv(t *testing.T) {
 			t.Errorf("%q taken as a plain decimal", bad)
 		}
 	}
+}
+
+// dayCache gives the very Time value fastTime gives, row after row, for
+// runs of rows on one day, a new day, and rows it must decline.
+func TestDayCacheMatchesFastTime(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 10))
+	var c dayCache
+	day := "2026-03-01T"
+	for i := 0; i < 20000; i++ {
+		if rng.IntN(500) == 0 {
+			day = fmt.Sprintf("%04d-%02d-%02dT", 1990+rng.IntN(60), 1+rng.IntN(12), 1+rng.IntN(31))
+		}
+		row := fmt.Sprintf("%s%02d:%02d:%02dZ", day, rng.IntN(25), rng.IntN(61), rng.IntN(61))
+		switch rng.IntN(50) {
+		case 0:
+			row = row[:19] + "+00:00"
+		case 1:
+			row = row[:12] + "x" + row[13:]
+		}
+		got, ok := c.time([]byte(row))
+		want, wok := fastTime([]byte(row))
+		if ok != wok || got != want {
+			t.Fatalf("%q: cached %v %v, fastTime %v %v", row, got, ok, want, wok)
+		}
+	}
+}
+
+// FuzzParseDecimal: wherever parseDecimal takes a value as its own, it is
+// strconv.ParseFloat's, bit for bit.
+func FuzzParseDecimal(f *testing.F) {
+	for _, c := range []string{"65000", "-54.3", "0.78", "6.5e4", "-.5", "123456789012345678"} {
+		f.Add(c)
+	}
+	f.Fuzz(func(t *testing.T, c string) {
+		v, _, fast := parseDecimal([]byte(c))
+		if !fast {
+			return
+		}
+		want, err := strconv.ParseFloat(c, 64)
+		if err != nil || math.Float64bits(v) != math.Float64bits(want) {
+			t.Errorf("%q: fast %v, strconv %v (%v)", c, v, want, err)
+		}
+	})
 }
 
 // fastTime gives the instant time.Parse gives, and declines all it cannot

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"io"
 	"math"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"strings"
@@ -325,5 +326,41 @@ func TestTimesAreUTC(t *testing.T) {
 	}
 	if got := recs[0].Time; got.Location() != time.UTC || got.Format(time.RFC3339) != "2026-03-01T10:22:00Z" {
 		t.Errorf("time %v, want 2026-03-01T10:22:00Z in UTC", got)
+	}
+}
+
+// splitPlain (eight bytes at a time) splits as bytes.Split and
+// bytes.TrimSpace do, for commas at every place in a word, spaces, tabs,
+// non-ASCII text and empty fields, and stops at a quote wherever it is.
+func TestSplitPlainMatchesSplit(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	alphabet := []byte("0123456789.-, , \t,é,,ab\u00a0")
+	var d Decoder
+	for i := 0; i < 20000; i++ {
+		line := make([]byte, rng.IntN(40))
+		for k := range line {
+			line[k] = alphabet[rng.IntN(len(alphabet))]
+		}
+		quoted := rng.IntN(10) == 0 && len(line) > 0
+		if quoted {
+			line[rng.IntN(len(line))] = '"'
+		}
+		d.fields = d.fields[:0]
+		ok := d.splitPlain(line)
+		if ok == quoted {
+			t.Fatalf("%q: splitPlain said %v with a quote %v", line, ok, quoted)
+		}
+		if !ok {
+			continue
+		}
+		want := bytes.Split(line, []byte(","))
+		if len(want) != len(d.fields) {
+			t.Fatalf("%q: %d fields, want %d", line, len(d.fields), len(want))
+		}
+		for k := range want {
+			if !bytes.Equal(d.fields[k], bytes.TrimSpace(want[k])) {
+				t.Fatalf("%q: field %d %q, want %q", line, k, d.fields[k], bytes.TrimSpace(want[k]))
+			}
+		}
 	}
 }

@@ -63,15 +63,45 @@ var UnstableNames = [...]string{StableOK: "stable", UnstableGap: "gap", Unstable
 type Window struct{ From, To int }
 
 // minMaxQueue keeps the minimum and maximum of a sliding window of values
-// (monotonic deques), each push and pop amortised O(1).
+// (monotonic deques), each push and pop amortised O(1). While the window
+// only grows (no start dropped since the last reset, the usual case in a
+// steady cruise) it keeps a plain running minimum and maximum instead,
+// and builds the deques from the window at the first drop: the results
+// are the same, the branchy deque work is spent only where starts move.
 type minMaxQueue struct {
-	lo, hi []int // indexes into vals: increasing values in lo, decreasing in hi
-	head   [2]int
+	lo, hi   []int // indexes into vals: increasing values in lo, decreasing in hi
+	head     [2]int
+	deque    bool    // the deques are in use (a start was dropped)
+	min, max float64 // the running extremes while !deque
+	count    int     // values pushed while !deque
 }
 
-func (q *minMaxQueue) reset() { q.lo, q.hi, q.head = q.lo[:0], q.hi[:0], [2]int{} }
+func (q *minMaxQueue) reset() {
+	q.lo, q.hi, q.head = q.lo[:0], q.hi[:0], [2]int{}
+	q.deque, q.count = false, 0
+}
 
 func (q *minMaxQueue) push(vals []float64, i int) {
+	if !q.deque {
+		v := vals[i]
+		if q.count == 0 {
+			q.min, q.max = v, v
+		} else {
+			// plain comparisons: the values are finite (the reader's checks)
+			if v < q.min {
+				q.min = v
+			}
+			if v > q.max {
+				q.max = v
+			}
+		}
+		q.count++
+		return
+	}
+	q.pushDeque(vals, i)
+}
+
+func (q *minMaxQueue) pushDeque(vals []float64, i int) {
 	for len(q.lo) > q.head[0] && vals[q.lo[len(q.lo)-1]] >= vals[i] {
 		q.lo = q.lo[:len(q.lo)-1]
 	}
@@ -82,8 +112,15 @@ func (q *minMaxQueue) push(vals []float64, i int) {
 	q.hi = append(q.hi, i)
 }
 
-// drop forgets the indexes before from.
-func (q *minMaxQueue) drop(from int) {
+// drop forgets the indexes before from; to is the window's end (exclusive).
+func (q *minMaxQueue) drop(vals []float64, from, to int) {
+	if !q.deque {
+		q.lo, q.hi, q.head, q.deque = q.lo[:0], q.hi[:0], [2]int{}, true
+		for k := from; k < to; k++ {
+			q.pushDeque(vals, k)
+		}
+		return
+	}
 	for q.head[0] < len(q.lo) && q.lo[q.head[0]] < from {
 		q.head[0]++
 	}
@@ -95,11 +132,20 @@ func (q *minMaxQueue) drop(from int) {
 // rangeWith is max − min of the window with vals[i] added (not pushed).
 func (q *minMaxQueue) rangeWith(vals []float64, i int) (lo, hi float64) {
 	lo, hi = vals[i], vals[i]
-	if q.head[0] < len(q.lo) {
-		lo = math.Min(lo, vals[q.lo[q.head[0]]])
+	if !q.deque {
+		if q.count > 0 && q.min < lo {
+			lo = q.min
+		}
+		if q.count > 0 && q.max > hi {
+			hi = q.max
+		}
+		return lo, hi
 	}
-	if q.head[1] < len(q.hi) {
-		hi = math.Max(hi, vals[q.hi[q.head[1]]])
+	if q.head[0] < len(q.lo) && vals[q.lo[q.head[0]]] < lo {
+		lo = vals[q.lo[q.head[0]]]
+	}
+	if q.head[1] < len(q.hi) && vals[q.hi[q.head[1]]] > hi {
+		hi = vals[q.hi[q.head[1]]]
 	}
 	return lo, hi
 }
@@ -233,7 +279,7 @@ func stableWindows(s []Sample, c StableCriteria, reasons []Unstable) (windows []
 			continue
 		}
 		for k := 0; k < nq; k++ {
-			qs[k].drop(i)
+			qs[k].drop(cols[k], i, j)
 		}
 		// The fuel-flow range is judged against the window's mean, which
 		// moves with the start: should [i, j) no longer pass, it is grown
