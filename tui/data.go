@@ -14,6 +14,10 @@ import (
 // it; it presents it.
 type Data struct {
 	Source string // where the snapshots came from
+	// Recorded is how many of the accepted rows are samples of continuous
+	// recordings (the built-in demo's two 1 Hz flights), told apart from
+	// snapshots in the header.
+	Recorded int
 	*pipeline.Result
 }
 
@@ -33,7 +37,9 @@ func DemoData() (*Data, error) {
 	st.Add(d.RecordingStats)
 	r := pipeline.FromRecords(recs, st, pipeline.Input{Roster: d.Roster, Events: d.Events(),
 		Config: model.DefaultTrendConfig(), KeepRecords: true})
-	return NewData("built-in demo, invented data", r), nil
+	data := NewData("built-in demo, invented data", r)
+	data.Recorded = d.RecordingStats.Accepted
+	return data, nil
 }
 
 // Condition is the cruise condition the Cruise and Turns screens work at:

@@ -300,7 +300,15 @@ func (s *fleetScreen) render() {
 		span = d.First.Format("2006-01-02") + " … " + d.Last.Format("2006-01-02") + " UTC"
 	}
 	b.WriteString(s.st.Muted.Render(truncate(clean(d.Source)+" · "+d.Roster.Label(), s.w)) + "\n")
-	counts := fmt.Sprintf("%d tails · %d snapshots · %d rejected · %s", len(d.Fleet.Tails), d.Stats.Accepted, d.Stats.Rejected, span)
+	counts := fmt.Sprintf("%d tails · %d snapshots", len(d.Fleet.Tails), d.Stats.Accepted-d.Recorded)
+	if d.Recorded > 0 {
+		counts += fmt.Sprintf(" + %d recorded", d.Recorded)
+	}
+	counts += fmt.Sprintf(" · %d rejected · ", d.Stats.Rejected)
+	if !d.First.IsZero() && lipgloss.Width(counts+span) > s.w { // the span without spaces or zone
+		span = d.First.Format("2006-01-02") + "…" + d.Last.Format("2006-01-02")
+	}
+	counts += span
 	b.WriteString(s.st.Muted.Render(truncate(counts, s.w)) + "\n")
 	summary := fmt.Sprintf("fleet median %s %% · ", fmtSigned(d.Fleet.MedianRecentPct, 2))
 	flagged := fmt.Sprintf("%d flagged", d.Fleet.Flagged)
