@@ -68,7 +68,7 @@ func ReadEvents(path string) (map[string][]model.Event, error) {
 		if why := badID([]byte(tail)); why != "" {
 			return nil, fmt.Errorf("%s:%d: tail: %s", path, line, why)
 		}
-		out[tail] = append(out[tail], model.Event{Time: t.UTC(), Kind: plainText(get("kind")), Note: plainText(get("note"))})
+		out[tail] = append(out[tail], model.Event{Time: t.UTC(), Kind: PlainText(get("kind")), Note: PlainText(get("note"))})
 	}
 	if idx == nil {
 		return nil, fmt.Errorf("%s: no header line (events files have time,tail,kind,note)", path)

@@ -181,10 +181,10 @@ func quoteField(b []byte) string {
 	return strconv.Quote(string(b))
 }
 
-// plainText is free text (an event's kind or note) with each control
+// PlainText is free text (an event's kind or note) with each control
 // character made a space and invalid UTF-8 made U+FFFD, so that it can be
 // printed to a terminal or into a table as it is.
-func plainText(s string) string {
+func PlainText(s string) string {
 	if badText([]byte(s)) == "" {
 		return s
 	}

@@ -93,11 +93,7 @@ func AssessFleet(trends []TailTrend, c TrendConfig) Fleet {
 			}
 		}
 		if !math.IsNaN(t.RecentPct) && !math.IsNaN(t.FuelFlowExpected) {
-			hours := c.CruiseHours
-			if t.CruiseHours > 0 {
-				hours = t.CruiseHours
-			}
-			a.ExcessFuel = t.RecentPct / 100 * t.FuelFlowExpected * Hour * hours
+			a.ExcessFuel = t.FuelPerYear(t.RecentPct, c)
 			a.CO2 = CO2PerFuel * a.ExcessFuel
 			a.Money = a.ExcessFuel * c.FuelPrice
 			if math.IsNaN(f.ExcessFuel) {
@@ -124,6 +120,19 @@ func undone(s Step, later []Step) bool {
 		}
 	}
 	return false
+}
+
+// FuelPerYear is the fuel a deviation of pct % costs the tail a year, kg:
+// pct/100 × its median expected cruise fuel flow (kg/s) × 3600 × its cruise
+// hours a year (its own, or the configuration's). Negative for a saving:
+// the fuel a step down of a repair saves is FuelPerYear of its size. NaN
+// without an expected fuel flow.
+func (t *TailTrend) FuelPerYear(pct float64, c TrendConfig) float64 {
+	hours := c.CruiseHours
+	if t.CruiseHours > 0 {
+		hours = t.CruiseHours
+	}
+	return pct / 100 * t.FuelFlowExpected * Hour * hours
 }
 
 // severer orders tails: more flags first, then more excess fuel, then a

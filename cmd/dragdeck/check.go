@@ -1,27 +1,35 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"sort"
 	"strings"
 
 	"dragdeck/feed"
+	"dragdeck/feed/store"
 )
 
 func runCheck(e *env, args []string) error {
-	fs := newFlagSet("check", "dragdeck check [--fleet FILE] PATH...",
+	fs := newFlagSet("check", "dragdeck check [--fleet FILE] PATH... | --store FILE",
 		`Validates snapshot files (or every *.csv in a folder) against the snapshot
 format (see the README) and lists every rejected row as file:line: column: reason, then the counts per
 reason. Every row is either accepted or rejected: read = accepted + rejected.
 Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 (missing, no header, a required column missing). With --fleet, the rows of
 tails that the fleet file does not name (or names only from a later date)
-are rejected too, as every reading command rejects them.`,
+are rejected too, as every reading command rejects them. With --store, the
+store is checked: its file's integrity, and every stored snapshot against
+the store's fleet file (or --fleet) and the snapshot limits.`,
 		"dragdeck check exports/2026-03/")
 	fleet := fs.str("fleet", "FILE", "", "fleet file (TOML): also reject the rows of tails it does not name")
+	storePath := fs.storeFlag()
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
+	}
+	if *storePath != "" {
+		return checkStore(e, fs, *storePath, *fleet)
 	}
 	if fs.NArg() == 0 {
 		return usageErrorf("give at least one snapshot file or folder (see 'dragdeck check --help')")
@@ -84,9 +92,13 @@ func writeCheckSummary(w io.Writer, paths, files, failed int, st feed.Stats, byR
 		fmt.Fprintf(w, "; %d could not be read", failed)
 	}
 	fmt.Fprintln(w)
-	if len(byReason) == 0 {
-		return
+	if len(byReason) > 0 {
+		writeReasons(w, byReason)
 	}
+}
+
+// writeReasons prints the rejected rows' counts by reason, most first.
+func writeReasons(w io.Writer, byReason map[string]int) {
 	keys := make([]string, 0, len(byReason))
 	for k := range byReason {
 		keys = append(keys, k)
@@ -129,4 +141,66 @@ func inputFiles(fs *flagSet) ([]string, error) {
 		return nil, usageErrorf("%v", err)
 	}
 	return files, nil
+}
+
+// checkStore checks a store as check checks files: the SQLite file's
+// integrity, then each stored snapshot against the snapshot limits and the
+// fleet file (--fleet, else the store's own), listing the rows that fail.
+func checkStore(e *env, fs *flagSet, path, fleet string) error {
+	if fs.NArg() > 0 {
+		return usageErrorf("give --store or snapshot paths, not both")
+	}
+	st, err := store.Open(path, false)
+	if err != nil {
+		return usageErrorf("--store: %v", err)
+	}
+	defer st.Close()
+	if err := st.Integrity(); err != nil {
+		fmt.Fprintf(e.stderr, "dragdeck check: %v\n", err)
+		return &exitErr{code: exitUsage}
+	}
+	var check feed.TailCheck
+	if fleet != "" {
+		r, err := feed.LoadFleet(fleet)
+		if err != nil {
+			return usageErrorf("--fleet: %v", err)
+		}
+		check = feed.RosterCheck(r)
+	} else if r, err := st.Roster(); err == nil {
+		check = feed.RosterCheck(r)
+	} else if !errors.Is(err, store.ErrNoFleet) {
+		return usageErrorf("--store: its fleet file: %v", err)
+	}
+	byReason := map[string]int{}
+	var total feed.Stats
+	reject := func(r feed.Record, column, reason string, kind error) {
+		fmt.Fprintln(e.stdout, &feed.RowError{File: r.File, Line: r.Line, Column: column, Reason: reason, Err: kind})
+		byReason[column+": "+kind.Error()]++
+		total.Rejected++
+	}
+	_, err = st.Each(func(r feed.Record) {
+		total.Read++
+		if e := feed.CheckSnapshot(r.Snap); e != nil {
+			reject(r, string(e.Field), e.Reason, e.Err)
+			return
+		}
+		if check != nil {
+			if why := check(r.Tail, r.Time); why != "" {
+				reject(r, "tail", why, feed.ErrNotInFleet)
+				return
+			}
+		}
+		total.Accepted++
+	})
+	if err != nil {
+		return usageErrorf("--store: %v", err)
+	}
+	fmt.Fprintf(e.stdout, "\nchecked store %s: %d snapshots, %d accepted, %d rejected\n", path, total.Read, total.Accepted, total.Rejected)
+	if len(byReason) > 0 {
+		writeReasons(e.stdout, byReason)
+	}
+	if total.Rejected > 0 {
+		return &exitErr{code: exitFindings}
+	}
+	return nil
 }

@@ -38,7 +38,7 @@ func demoDashboard(e *env) error {
 }
 
 func runDash(e *env, args []string) error {
-	fs := newFlagSet("dash", "dragdeck dash [--type FILE | --fleet FILE] [--events FILE] PATH...",
+	fs := newFlagSet("dash", "dragdeck dash [--type FILE | --fleet FILE] [--events FILE] PATH... | --store FILE",
 		`Opens the dashboard on snapshot files or folders (every *.csv inside): the
 Fleet screen lists every tail, most severe first; enter opens a tail, where
 enter on a flight replays it; tab moves between the Fleet, Tail, Flight,
@@ -47,6 +47,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		"dragdeck dash --events fleet/events.csv fleet/snapshots/")
 	types := fs.typeFlags()
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note)")
+	storePath := fs.storeFlag()
 	trend := trendFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
@@ -55,26 +56,25 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	if err != nil {
 		return err
 	}
-	ros, files, err := typeAndFiles(e.stderr, fs, types)
-	if err != nil {
-		return err
-	}
 	if !isTerminal(e.stdout) {
 		return usageErrorf("the dashboard needs a terminal; for plain output use 'dragdeck report'")
 	}
-	evs, err := readEvents(*events)
+	in, err := openInput(e.stderr, fs, types, *storePath, *events)
 	if err != nil {
 		return err
 	}
+	defer in.close()
 	progress := &atomic.Int64{}
-	source := files[0]
-	if len(files) > 1 {
-		source = fmt.Sprintf("%s and %d more", files[0], len(files)-1)
-	}
+	source := in.source()
 	load := func() (*tui.Data, error) {
-		r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Events: evs, Config: c, KeepRecords: true, Progress: progress})
+		pin := in.pipelineInput(c)
+		pin.KeepRecords, pin.Progress = true, progress
+		r := pipeline.Run(pin)
+		if r.SourceErr != nil {
+			return nil, r.SourceErr
+		}
 		failed := r.Failed()
-		if len(failed) == len(files) {
+		if len(failed) > 0 && len(failed) == len(in.files) {
 			return nil, failed[0].Err
 		}
 		src := source
@@ -83,5 +83,5 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		}
 		return tui.NewData(src, r), nil
 	}
-	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(files), Progress: progress, Load: load}))
+	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(in.files), Progress: progress, Load: load}))
 }

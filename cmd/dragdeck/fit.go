@@ -44,7 +44,7 @@ func parseDay(s string, end bool) (time.Time, error) {
 }
 
 func runFit(e *env, args []string) error {
-	fs := newFlagSet("fit", "dragdeck fit [--type FILE | --fleet FILE] [--tail ID]... [--from DATE] [--to DATE] PATH... > fitted.toml",
+	fs := newFlagSet("fit", "dragdeck fit [--type FILE | --fleet FILE] [--tail ID]... [--from DATE] [--to DATE] PATH... | --store FILE > fitted.toml",
 		`Fits a baseline drag polar CD = CD0 + k CL^2 by least squares to the measured
 drag of the chosen tails and dates (the type's wave drag is removed first, and
 points beyond the usual limits of bank, vertical speed, acceleration and
@@ -59,6 +59,7 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 	fs.argNames["tail"] = "ID"
 	from := fs.str("from", "DATE", "", "first day (YYYY-MM-DD)")
 	to := fs.str("to", "DATE", "", "last day (YYYY-MM-DD)")
+	storePath := fs.storeFlag()
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
@@ -74,10 +75,11 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 			return usageErrorf("--to: %v", err)
 		}
 	}
-	ros, files, err := typeAndFiles(e.stderr, fs, types)
+	in, err := openInput(e.stderr, fs, types, *storePath, "")
 	if err != nil {
 		return err
 	}
+	defer in.close()
 	want := map[string]bool{}
 	for _, tl := range tails {
 		want[tl] = true
@@ -85,9 +87,15 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 	// The pipeline reads and analyses the chosen snapshots; the polar
 	// points are its usable ones (model.PolarPoints), as on the Tail screen.
 	c := model.DefaultTrendConfig()
-	r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Config: c, Filter: func(r feed.Record) bool {
+	pin := in.pipelineInput(c)
+	pin.Events = nil // a fit takes the snapshots as they are
+	pin.Filter = func(r feed.Record) bool {
 		return (len(want) == 0 || want[r.Tail]) && (t0.IsZero() || !r.Time.Before(t0)) && (t1.IsZero() || !r.Time.After(t1))
-	}})
+	}
+	r := pipeline.Run(pin)
+	if err := sourceFailed(r); err != nil {
+		return err
+	}
 	if failed := r.Failed(); len(failed) > 0 {
 		return usageErrorf("%v", failed[0].Err)
 	}

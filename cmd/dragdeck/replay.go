@@ -11,7 +11,7 @@ import (
 )
 
 func runReplay(e *env, args []string) error {
-	fs := newFlagSet("replay", "dragdeck replay [--type FILE | --fleet FILE] [--speed X] [--tail ID] [--flight ID] [--max-wait D] PATH...",
+	fs := newFlagSet("replay", "dragdeck replay [--type FILE | --fleet FILE] [--speed X] [--tail ID] [--flight ID] [--max-wait D] PATH... | --store FILE",
 		`Plays the snapshots of one or more files (or folders of *.csv) in time order,
 paced at X times real time, and analyses each one. --speed 0 plays without
 waiting. Long gaps (between flights, overnight) are shortened to --max-wait.
@@ -24,6 +24,7 @@ stderr.`,
 	tail := fs.str("tail", "ID", "", "only this tail")
 	flight := fs.str("flight", "ID", "", "only this flight")
 	maxWait := fs.Duration("max-wait", 5*time.Second, "longest wait between two snapshots")
+	storePath := fs.storeFlag()
 	fs.argNames["max-wait"] = "D"
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
@@ -31,18 +32,15 @@ stderr.`,
 	if math.IsNaN(*speed) || math.IsInf(*speed, 0) || *speed < 0 {
 		return usageErrorf("--speed: must be ≥ 0, got %g", *speed)
 	}
-	ros, files, err := typeAndFiles(e.stderr, fs, types)
+	in, err := openInput(e.stderr, fs, types, *storePath, "")
 	if err != nil {
 		return err
 	}
-	recs, results := feed.LoadReplay(files, feed.ReplayFilter{Tail: *tail, Flight: *flight}, feed.RosterCheck(ros), printReject(e.stderr))
-	var st feed.Stats
-	for _, res := range results {
-		warnUnknown(e.stderr, res)
-		if res.Err != nil {
-			return usageErrorf("%v", res.Err)
-		}
-		st.Add(res.Stats)
+	defer in.close()
+	ros := in.roster
+	recs, st, err := in.replayRecords(e.stderr, feed.ReplayFilter{Tail: *tail, Flight: *flight}, printReject(e.stderr))
+	if err != nil {
+		return err
 	}
 	if len(recs) == 0 {
 		fmt.Fprintf(e.stderr, "dragdeck replay: no snapshots to play (%d rows read, %d accepted, none matching --tail %q --flight %q)\n",

@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"sort"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -13,6 +14,7 @@ import (
 
 	"dragdeck/feed"
 	"dragdeck/feed/pipeline"
+	"dragdeck/feed/store"
 	"dragdeck/model"
 )
 
@@ -92,6 +94,23 @@ type tailJSON struct {
 	Excluded     map[string]int `json:"excluded"`
 	// Engine is the tail's engine series; null without thrust from fan speed.
 	Engine *seriesJSON `json:"engine"`
+	// Work is the tail's work items in progress (from a store; [] else).
+	Work []workRefJSON `json:"work"`
+}
+
+// workRefJSON is a work item in a report: its id, status and reason.
+type workRefJSON struct {
+	ID     int64  `json:"id"`
+	Status string `json:"status"`
+	Reason string `json:"reason"`
+}
+
+func workRefs(items []store.WorkItem) []workRefJSON {
+	out := []workRefJSON{}
+	for _, w := range items {
+		out = append(out, workRefJSON{ID: w.ID, Status: w.Status, Reason: w.Reason})
+	}
+	return out
 }
 
 // seriesJSON is one series of a tail, airframe or engine: its recent
@@ -208,7 +227,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 }
 
 func runReport(e *env, args []string) error {
-	fs := newFlagSet("report", "dragdeck report [--type FILE | --fleet FILE] [--format table|csv|json] [--events FILE] [flags] PATH...",
+	fs := newFlagSet("report", "dragdeck report [--type FILE | --fleet FILE] [--format table|csv|json] [--events FILE] [flags] PATH... | --store FILE",
 		`Per-tail drag trend and flags for a fleet (the method is in the README). Every
 accepted snapshot is analysed against the baseline polar; points beyond the
 limits below are left out and counted. Per tail: the recent level (median
@@ -222,13 +241,16 @@ segmentation; events start a new segment), the flags and the cost:
   step    an increase ≥ --step-pp that has not been undone
 Decreases are reported as improvements, not flagged. Excess fuel per year =
 recent level × the tail's median expected cruise fuel flow × --cruise-hours;
-CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
+CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity. With
+--store, the snapshots, events and fleet file come from the store, and each
+tail's work items in progress are shown.`,
 		"dragdeck report --events fleet/events.csv --fuel-price-per-kg 0.85 fleet/snapshots/")
 	types := fs.typeFlags()
 	format := fs.str("format", "F", "table", "table, csv or json")
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note): steps are matched to events, trends restart at them")
 	rejects := fs.str("rejects", "FILE", "", "write every rejected row to FILE")
 	plots := fs.str("plots", "DIR", "", "write a PNG per tail and fleet.png into DIR")
+	storePath := fs.storeFlag()
 	failOnFlag := fs.Bool("fail-on-flag", false, "exit 1 when any tail is flagged (for scheduled jobs)")
 	trend := trendFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
@@ -243,29 +265,37 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	default:
 		return usageErrorf("--format: %q is not table, csv or json", *format)
 	}
-	ros, files, err := typeAndFiles(e.stderr, fs, types)
+	in, err := openInput(e.stderr, fs, types, *storePath, *events)
 	if err != nil {
 		return err
 	}
-	evs, err := readEvents(*events)
-	if err != nil {
-		return err
-	}
+	defer in.close()
+	files := in.files
 	var rejOut *atomicFile
 	if *rejects != "" {
-		if files, err = leaveOutOutput(e.stderr, *rejects, fs.Args(), files); err != nil {
-			return err
+		if in.store == nil {
+			if files, err = leaveOutOutput(e.stderr, *rejects, fs.Args(), files); err != nil {
+				return err
+			}
+		} else if sameFile(*rejects, *storePath) {
+			return usageErrorf("--rejects: %s is the store; writing it would destroy it", *rejects)
 		}
 		if rejOut, err = createAtomic(*rejects); err != nil {
 			return usageErrorf("--rejects: %v", err)
 		}
 		defer rejOut.Abort() // a run that fails leaves the old file as it was
 	}
-	r := pipeline.Run(pipeline.Input{Paths: files, Roster: ros, Events: evs, Config: c, Reject: func(r *feed.RowError) {
+	in.files = files
+	pin := in.pipelineInput(c)
+	pin.Reject = func(r *feed.RowError) {
 		if rejOut != nil {
 			fmt.Fprintln(rejOut, r)
 		}
-	}})
+	}
+	r := pipeline.Run(pin)
+	if err := sourceFailed(r); err != nil {
+		return err
+	}
 	failed := reportFiles(e.stderr, "report", r)
 	if rejOut != nil {
 		if err := rejOut.Commit(); err != nil {
@@ -281,11 +311,11 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity.`,
 	}
 	switch *format {
 	case "json":
-		err = writeReportJSON(e.stdout, r)
+		err = writeReportJSON(e.stdout, r, in.work)
 	case "csv":
 		err = writeReportCSV(e.stdout, r, c.FuelPrice)
 	default:
-		writeReportTable(e.stdout, r, len(files))
+		writeReportTable(e.stdout, r, in)
 	}
 	if err != nil {
 		return err
@@ -348,7 +378,7 @@ func leaveOutOutput(stderr io.Writer, out string, args, inputs []string) ([]stri
 	return kept, nil
 }
 
-func writeReportJSON(w io.Writer, r *pipeline.Result) error {
+func writeReportJSON(w io.Writer, r *pipeline.Result, work map[string][]store.WorkItem) error {
 	f, c := r.Fleet, r.Config
 	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Duplicates: r.Duplicates, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
 		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last), Types: newTypesJSON(r)},
@@ -363,7 +393,9 @@ func writeReportJSON(w io.Writer, r *pipeline.Result) error {
 		if e, ok := r.EngineTail(a.Tail); ok {
 			engine = &e
 		}
-		j.Tails = append(j.Tails, newTailJSON(a, engine, c.FuelPrice))
+		t := newTailJSON(a, engine, c.FuelPrice)
+		t.Work = workRefs(work[a.Tail])
+		j.Tails = append(j.Tails, t)
 	}
 	return writeJSON(w, j)
 }
@@ -412,7 +444,7 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 	return cw.Error()
 }
 
-func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
+func writeReportTable(w io.Writer, r *pipeline.Result, in *input) {
 	f, c := r.Fleet, r.Config
 	price := c.FuelPrice
 	mixed := r.Roster.Mixed()
@@ -421,7 +453,11 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 		span = r.First.Format(time.DateOnly) + " … " + r.Last.Format(time.DateOnly) + " UTC"
 	}
 	fmt.Fprintf(w, "Fleet drag report: %s\n", r.Roster.Label())
-	fmt.Fprintf(w, "%d tails, %d snapshots read from %d file(s), %d rejected\nperiod %s\n", len(f.Tails), r.Stats.Read, files, r.Stats.Rejected, span)
+	from := fmt.Sprintf("%d file(s)", len(in.files))
+	if in.store != nil {
+		from = "store " + in.store.Path()
+	}
+	fmt.Fprintf(w, "%d tails, %d snapshots read from %s, %d rejected\nperiod %s\n", len(f.Tails), r.Stats.Read, from, r.Stats.Rejected, span)
 	if len(f.Tails) == 0 {
 		fmt.Fprintf(w, "\nNo usable snapshots: nothing to report.\n\n%s\n", caution)
 		return
@@ -528,6 +564,9 @@ func writeReportTable(w io.Writer, r *pipeline.Result, files int) {
 			}
 		}
 	}
+	if in.store != nil {
+		writeWorkInProgress(w, f.Tails, in.work)
+	}
 	if mixed {
 		fmt.Fprintf(w, "\ntype: in force at the tail's last snapshot; the level flag compares a tail with\nthe median of its own type.")
 	}
@@ -583,4 +622,41 @@ func wrapWords(s string, width, indent int) []string {
 		lines[i] = strings.Repeat(" ", indent) + lines[i]
 	}
 	return lines
+}
+
+// writeWorkInProgress lists the work items in progress, by tail in the
+// report's order (the most severe first).
+func writeWorkInProgress(w io.Writer, tails []model.TailAssessment, work map[string][]store.WorkItem) {
+	n := 0
+	for _, items := range work {
+		n += len(items)
+	}
+	if n == 0 {
+		fmt.Fprintf(w, "\nWork in progress: none.\n")
+		return
+	}
+	fmt.Fprintf(w, "\nWork in progress (%d):\n", n)
+	seen := map[string]bool{}
+	show := func(tail string) {
+		for _, it := range work[tail] {
+			line := fmt.Sprintf("%s #%d %s: %s (opened %s)", tail, it.ID, it.Status, it.Reason, it.Opened.Format(time.DateOnly))
+			for _, l := range wrapWords(line, 80-2, 4) {
+				fmt.Fprintf(w, "  %s\n", l)
+			}
+		}
+		seen[tail] = true
+	}
+	for _, a := range tails {
+		show(a.Tail)
+	}
+	var rest []string
+	for tail := range work {
+		if !seen[tail] {
+			rest = append(rest, tail)
+		}
+	}
+	sort.Strings(rest)
+	for _, tail := range rest { // items of tails without data in this report
+		show(tail)
+	}
 }

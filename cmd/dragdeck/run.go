@@ -46,6 +46,9 @@ func commands() []command {
 		{"report", "per-tail drag trends, flags and cost for a fleet", runReport},
 		{"fit", "fit a baseline drag polar to measured drag; writes a type file", runFit},
 		{"demo", "write the invented demo fleet, its type file and its truth", runDemo},
+		{"import", "add snapshot, events and fleet files to the fleet store", runImport},
+		{"worklist", "the work list: items for maintenance, from open to closed", runWorklist},
+		{"review", "what changed since the last review: flags, steps, work, events", runReview},
 	}
 }
 

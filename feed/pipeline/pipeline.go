@@ -23,6 +23,8 @@ import (
 // Input is what the pipeline reads and how it judges it.
 type Input struct {
 	Paths []string // snapshot files
+	// Source, when set, is read in place of Paths (the fleet store).
+	Source Source
 	// Roster gives the type in force for each tail at each time (a fleet
 	// file, §3.4); nil: every snapshot is analysed with Type.
 	Roster *model.Roster
@@ -64,6 +66,9 @@ type Result struct {
 	// already read (the same file given twice, overlapping exports): each
 	// tail and time is analysed once.
 	Duplicates int
+	// SourceErr is why Input.Source could not be read to the end (nil
+	// when it was, and when files were read).
+	SourceErr error
 
 	tailIdx, engineIdx map[string]int // place of each tail in Fleet.Tails and Engine.Tails
 	// refs: the points say where their rows are (TrendPoint.Ref: the
@@ -72,6 +77,7 @@ type Result struct {
 	paths   []string
 	fileIdx map[string]int
 	opt     feed.ReadOptions
+	src     Source // where FlightRecords reads a flight again, for a run on a Source
 }
 
 // refBits is where the file's index starts in a TrendPoint.Ref; below it
@@ -131,6 +137,9 @@ func index(tails []model.TailAssessment) map[string]int {
 func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 	if r.Records == nil && r.refs {
 		return r.readFlight(tail, f)
+	}
+	if r.Records == nil && r.src != nil {
+		return r.sourceFlight(tail, f)
 	}
 	recs := r.Records[tail]
 	i := sort.Search(len(recs), func(i int) bool { return !recs[i].Time.Before(f.Time) })
@@ -205,6 +214,9 @@ const batchSize = 4096
 // that cannot be read is in Result.Files with its error; the others are
 // read all the same.
 func Run(in Input) *Result {
+	if in.Source != nil {
+		return runSource(in)
+	}
 	r := newResult(in, len(in.Paths))
 	if in.KeepRecords { // rows are read again on demand: the points keep where they are
 		r.Records, r.refs, r.paths = nil, true, in.Paths

@@ -1,0 +1,76 @@
+package pipeline
+
+import (
+	"sort"
+	"time"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+// Source is snapshots kept elsewhere than in files: the fleet store
+// (package store). The pipeline reads it as it reads files, and gives the
+// same result for the same snapshots.
+type Source interface {
+	// Each calls fn for every snapshot, in the order they were first read,
+	// and counts them.
+	Each(fn func(feed.Record)) (feed.Stats, error)
+	// Flight returns a tail's snapshots from..to (inclusive) in time
+	// order: the rows of a flight to replay.
+	Flight(tail string, from, to time.Time) ([]feed.Record, error)
+}
+
+// runSource is Run on in.Source. A snapshot of a tail the roster does not
+// name is rejected and counted, as the reader rejects it in a file.
+func runSource(in Input) *Result {
+	r := newResult(in, 0)
+	if in.KeepRecords { // read again on demand, as from files
+		r.Records, r.src = nil, in.Source
+	}
+	st, err := in.Source.Each(func(rec feed.Record) {
+		if _, _, why := r.Roster.At(rec.Tail, rec.Time); why != "" {
+			st := &r.Stats
+			st.Rejected++
+			if in.Reject != nil {
+				in.Reject(&feed.RowError{File: rec.File, Line: rec.Line, Column: "tail", Reason: why, Err: feed.ErrNotInFleet})
+			}
+			return
+		}
+		r.add(in, rec)
+	})
+	rejected := r.Stats.Rejected
+	r.Stats = st
+	r.Stats.Accepted -= rejected
+	r.Stats.Rejected += rejected
+	r.SourceErr = err
+	r.assess(in)
+	return r
+}
+
+// sourceFlight reads flight f of the tail back from the source: the rows
+// from its first point to its last, of its flight name.
+func (r *Result) sourceFlight(tail string, f model.FlightPoint) []feed.Record {
+	pts := r.Points[tail]
+	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(f.Time) })
+	j := i
+	for ; j < len(pts); j++ {
+		p := pts[j]
+		if p.Flight != f.Flight || (j > i && model.NewFlight(f.Flight, pts[j-1].Time, p.Flight, p.Time, r.Config.FlightGap)) {
+			break
+		}
+	}
+	if j == i {
+		return nil
+	}
+	recs, err := r.src.Flight(tail, pts[i].Time, pts[j-1].Time)
+	if err != nil {
+		return nil // the store went since it was read: nothing to show
+	}
+	out := recs[:0]
+	for _, rec := range recs {
+		if rec.Flight == f.Flight {
+			out = append(out, rec)
+		}
+	}
+	return out
+}
