@@ -149,7 +149,7 @@ func bigCSV(t *testing.T, path string, n int) {
 	b := []byte("time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph,bank_deg\n")
 	t0 := time.Date(2025, 1, 1, 0, 0, 0, 0, time.UTC)
 	for i := 0; i < n; i++ {
-		b = t0.Add(time.Duration(i/50) * 5 * time.Minute).AppendFormat(b, time.RFC3339)
+		b = t0.Add(time.Duration(i/50)*5*time.Minute).AppendFormat(b, time.RFC3339)
 		b = fmt.Appendf(b, ",K%02d,KF%d,%d,%d,0.78,-52.0,%d,0\n", i%50, i/50/4, 60000+i%4000, 35000+i%5*20, 2300+i%40)
 		if len(b) > 1<<20 {
 			f.Write(b)
