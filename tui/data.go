@@ -18,6 +18,11 @@ type Data struct {
 	// recordings (the built-in demo's two 1 Hz flights), told apart from
 	// snapshots in the header.
 	Recorded int
+	// Work is the store's work list (nil unless the data come from a
+	// store); Review what changed since the last review mark (nil
+	// likewise).
+	Work   WorkList
+	Review *ReviewMarks
 	*pipeline.Result
 }
 

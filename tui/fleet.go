@@ -13,6 +13,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 
+	"dragdeck/feed/store"
 	"dragdeck/model"
 )
 
@@ -75,6 +76,11 @@ type fleetScreen struct {
 	sparkW    int
 	empty     string // what the screen says without data
 	view      string
+	// the work list (a store's data): the items in progress by tail, the
+	// form of the work key while it is open, and what the last save did
+	work   map[string][]store.WorkItem
+	form   *workForm
+	notice string
 }
 
 func newFleetScreen(st Styles) *fleetScreen {
@@ -90,19 +96,29 @@ func (s *fleetScreen) Title() string { return "Fleet" }
 
 func (s *fleetScreen) Init() tea.Cmd { return nil }
 
-func (s *fleetScreen) Capturing() bool { return s.filtering }
+func (s *fleetScreen) Capturing() bool { return s.filtering || s.form != nil }
 
 func (s *fleetScreen) ShortHelp() []key.Binding {
 	k := fleetKeyMap
+	if s.form != nil {
+		return []key.Binding{keyWorkSave, keyWorkCancel, keyWorkNext}
+	}
 	if s.filtering {
 		return []key.Binding{k.Keep, k.Clear}
+	}
+	if s.data != nil && s.data.Work != nil {
+		return []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter, keyWork}
 	}
 	return []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter}
 }
 
 func (s *fleetScreen) FullHelp() [][]key.Binding {
 	k := fleetKeyMap
-	return [][]key.Binding{{k.Up, k.Down, k.PgUp, k.PgDn, k.Home, k.End}, {k.Open, k.Sort, k.Filter, k.Keep, k.Clear}}
+	all := [][]key.Binding{{k.Up, k.Down, k.PgUp, k.PgDn, k.Home, k.End}, {k.Open, k.Sort, k.Filter, k.Keep, k.Clear}}
+	if s.data != nil && s.data.Work != nil {
+		all = append(all, []key.Binding{keyWork, keyWorkNext, keyWorkPrev, keyWorkSave, keyWorkCancel})
+	}
+	return all
 }
 
 // SetData gives the screen its fleet.
@@ -110,7 +126,46 @@ func (s *fleetScreen) SetData(d *Data) {
 	s.data = d
 	s.sparkLo, s.sparkHi = d.Fleet.DeviationRange()
 	s.sparks, s.sparkW = nil, -1
+	s.loadWork()
 	s.applyFilter()
+}
+
+// loadWork reads the items in progress from the work list.
+func (s *fleetScreen) loadWork() {
+	s.work = nil
+	if s.data == nil || s.data.Work == nil {
+		return
+	}
+	w, err := s.data.Work.InProgress()
+	if err != nil {
+		s.notice = "work list: " + err.Error()
+		return
+	}
+	s.work = w
+}
+
+// openForm opens the work key's form on the selected tail: a new item
+// with the flag that raises it, or the next status of its item.
+func (s *fleetScreen) openForm() {
+	tail, ok := s.selected()
+	if !ok || s.data.Work == nil {
+		return
+	}
+	if items := s.work[tail]; len(items) > 0 {
+		it := items[len(items)-1]
+		s.form = newWorkForm(tail, &it, "", "")
+		return
+	}
+	a, _ := s.data.Tail(tail)
+	flag, reason := "", ""
+	if len(a.Flags) > 0 {
+		flag = a.Flags[0]
+		reason = fmt.Sprintf("%s: recent level %s %%, drift %s pp/100 d", flag, fmtSigned(a.RecentPct, 2), fmtSigned(a.Drift.Slope, 2))
+	} else if e, ok := s.data.EngineTail(tail); ok && len(e.Flags) > 0 {
+		flag = "e-" + e.Flags[0]
+		reason = fmt.Sprintf("%s: engine level %s %%, drift %s pp/100 d", flag, fmtSigned(e.RecentPct, 2), fmtSigned(e.Drift.Slope, 2))
+	}
+	s.form = newWorkForm(tail, nil, flag, reason)
 }
 
 // SetEmpty sets what the screen says while it has no fleet.
@@ -166,6 +221,23 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		return s, nil
 	}
 	k := fleetKeyMap
+	if s.form != nil {
+		done, save, cmd := s.form.update(km)
+		if done {
+			if save {
+				msg, err := s.form.save(s.data.Work)
+				if err != nil {
+					s.notice = "not saved: " + err.Error()
+				} else {
+					s.notice = msg
+					s.loadWork()
+				}
+			}
+			s.form = nil
+		}
+		s.render()
+		return s, cmd
+	}
 	if s.filtering {
 		switch {
 		case key.Matches(km, k.Keep):
@@ -210,6 +282,14 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		s.filter.SetValue("")
 		s.applyFilter()
 		return s, nil
+	case key.Matches(km, keyWork) && s.data != nil && s.data.Work != nil:
+		s.notice = ""
+		s.openForm()
+		s.render()
+		if s.form == nil {
+			return s, nil
+		}
+		return s, s.form.text.Focus()
 	case key.Matches(km, k.Open):
 		if t, ok := s.selected(); ok {
 			return s, func() tea.Msg { return openTailMsg{t} }
@@ -228,7 +308,19 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 const fleetHeadLines = 5
 
 // listHeight is the number of table rows that fit.
-func (s *fleetScreen) listHeight() int { return max(1, s.h-fleetHeadLines) }
+func (s *fleetScreen) listHeight() int { return max(1, s.h-fleetHeadLines-s.footLines()) }
+
+// footLines is the number of lines below the rows: the work form, or
+// what its last save did.
+func (s *fleetScreen) footLines() int {
+	switch {
+	case s.form != nil:
+		return 2
+	case s.notice != "":
+		return 1
+	}
+	return 0
+}
 
 func (s *fleetScreen) View() string { return s.view }
 
@@ -243,6 +335,7 @@ const (
 	colFlags = 14
 	colEng   = 7  // the engine series' level, when any tail has one
 	colType  = 10 // at most, for the tail's type with a fleet file of several types
+	colWork  = 8  // the work item's status, with a store
 	minSpark = 6  // a narrower sparkline is left out
 )
 
@@ -250,16 +343,19 @@ const (
 // screen: the type (0 with one type, named in the header), the engine
 // level (0 when no tail has an engine series), the flags and the
 // sparkline (0 when it does not fit: the flags then take what is left).
-type fleetCols struct{ typ, eng, flags, spark int }
+type fleetCols struct{ typ, eng, work, flags, spark int }
 
 func (s *fleetScreen) cols() fleetCols {
 	c := fleetCols{eng: s.engineCol(), flags: colFlags}
+	if s.data != nil && s.data.Work != nil {
+		c.work = colWork
+	}
 	if s.data != nil && s.data.Roster.Mixed() {
 		for _, n := range s.data.Roster.TypeNames() {
 			c.typ = max(c.typ, min(colType, len([]rune(n))+1))
 		}
 	}
-	fixed := colMark + colTail + c.typ + colDev + colDrift + 1 + colStep + colFuel + c.eng + 1
+	fixed := colMark + colTail + c.typ + colDev + colDrift + 1 + colStep + colFuel + c.eng + 1 + c.work
 	c.spark = s.w - fixed - colFlags - 1
 	if c.spark < minSpark {
 		c.spark, c.flags = 0, max(5, s.w-fixed)
@@ -323,6 +419,13 @@ func (s *fleetScreen) render() {
 		flagged += eng
 	}
 	line2 := summary + flagged + s.st.Muted.Render(" · by "+fleetOrders[s.order].name)
+	if r := d.Review; r != nil {
+		since := "no review yet"
+		if !r.Since.IsZero() {
+			since = "since review " + r.Since.Format("2006-01-02")
+		}
+		line2 += s.st.Muted.Render(" · + new " + since)
+	}
 	if s.filtering || s.filter.Value() != "" {
 		line2 += "   " + s.filter.View()
 	}
@@ -335,9 +438,9 @@ func (s *fleetScreen) render() {
 		sparkHead1, sparkHead2 = "trend", "dev %"
 	}
 	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", cols.typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel", colFuel) + padL("engine", cols.eng) + " " + pad("flags", cols.flags) + cols.sparkCell(sparkHead1)
+		padL("fuel", colFuel) + padL("engine", cols.eng) + " " + pad("work", cols.work) + pad("flags", cols.flags) + cols.sparkCell(sparkHead1)
 	h2 := pad("", colMark) + pad("", colTail) + pad("", cols.typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
-		padL("t/yr", colFuel) + padL("%", cols.eng) + " " + pad("", cols.flags) + cols.sparkCell(sparkHead2)
+		padL("t/yr", colFuel) + padL("%", cols.eng) + " " + pad("", cols.work) + pad("", cols.flags) + cols.sparkCell(sparkHead2)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {
@@ -360,6 +463,12 @@ func (s *fleetScreen) render() {
 	for i := s.offset; i < min(len(s.rows), s.offset+lh); i++ {
 		b.WriteString(s.row(s.rows[i], i == s.cursor, cols) + "\n")
 	}
+	switch {
+	case s.form != nil:
+		b.WriteString(s.form.view(s.st, s.w) + "\n")
+	case s.notice != "":
+		b.WriteString(s.st.Accent.Render(truncate(s.notice, s.w)) + "\n")
+	}
 	s.view = lipgloss.NewStyle().MaxWidth(s.w).MaxHeight(s.h).Render(strings.TrimSuffix(b.String(), "\n"))
 }
 
@@ -378,13 +487,29 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 		}
 	}
 	all := a.Flags
+	var raised map[string]bool
+	if s.data.Review != nil {
+		raised = s.data.Review.Raised[a.Tail]
+		if len(raised) > 0 {
+			all = slices.Clone(all)
+			for i, f := range all {
+				if raised[f] {
+					all[i] = "+" + f
+				}
+			}
+		}
+	}
 	engine := ""
 	if eng := cols.eng; eng > 0 {
 		engine = padL("n/a", eng) // thrust from fuel flow
 		if e, ok := s.data.EngineTail(a.Tail); ok {
 			engine = padL(fmtSigned(e.RecentPct, 2), eng)
 			for _, f := range e.Flags {
-				all = append(all[:len(all):len(all)], "e-"+f)
+				mark := ""
+				if raised["e-"+f] {
+					mark = "+"
+				}
+				all = append(all[:len(all):len(all)], mark+"e-"+f)
 			}
 		}
 	}
@@ -398,6 +523,13 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 	}
 	num := pad(clean(a.Tail), colTail) + pad(truncate(clean(a.Type), max(0, cols.typ-1)), cols.typ) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
 	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
+	if cols.work > 0 {
+		w := "-"
+		if items := s.work[a.Tail]; len(items) > 0 {
+			w = workStatusShort(items[len(items)-1].Status)
+		}
+		fuel += pad(w, cols.work)
+	}
 	flagText := pad(truncate(flags, cols.flags), cols.flags)
 	if selected {
 		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+flagText+spk, s.w-colMark))

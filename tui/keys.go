@@ -40,3 +40,14 @@ var (
 	keyFilterDrop = key.NewBinding(key.WithKeys("esc"), key.WithHelp("esc", "clear filter"))
 	keySort       = key.NewBinding(key.WithKeys("s"), key.WithHelp("s", "sort by"))
 )
+
+// Keys of the work list (a store's data only): the work key opens the form
+// for the selected tail; in it, left and right choose the status, enter
+// saves and esc drops.
+var (
+	keyWork       = key.NewBinding(key.WithKeys("w"), key.WithHelp("w", "work item"))
+	keyWorkSave   = key.NewBinding(key.WithKeys("enter"), key.WithHelp("enter", "save"))
+	keyWorkCancel = key.NewBinding(key.WithKeys("esc"), key.WithHelp("esc", "drop"))
+	keyWorkNext   = key.NewBinding(key.WithKeys("right", "tab"), key.WithHelp("→", "next status"))
+	keyWorkPrev   = key.NewBinding(key.WithKeys("left", "shift+tab"), key.WithHelp("←", "previous status"))
+)

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"os"
 	"sync/atomic"
+	"time"
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
@@ -11,6 +12,7 @@ import (
 
 	"dragdeck/feed"
 	"dragdeck/feed/pipeline"
+	"dragdeck/feed/store"
 	"dragdeck/tui"
 )
 
@@ -81,7 +83,51 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		if len(failed) > 0 {
 			src = fmt.Sprintf("%s (%d could not be read: %v)", source, len(failed), failed[0].Err)
 		}
-		return tui.NewData(src, r), nil
+		d := tui.NewData(src, r)
+		if in.store != nil {
+			rv, err := newReview(in.store, r)
+			if err != nil {
+				return nil, err
+			}
+			d.Work, d.Review = storeWork{in.store}, reviewMarks(rv)
+		}
+		return d, nil
 	}
 	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(in.files), Progress: progress, Load: load}))
+}
+
+// storeWork is the dashboard's work list: the store's, written at once.
+type storeWork struct{ st *store.Store }
+
+func (w storeWork) InProgress() (map[string][]store.WorkItem, error) {
+	items, err := w.st.Work()
+	return store.OpenWork(items), err
+}
+
+func (w storeWork) Open(tail, reason, flag string) (int64, error) {
+	return w.st.AddWork(tail, reason, flag)
+}
+
+func (w storeWork) Set(id int64, status, note string) error { return w.st.SetWork(id, status, note) }
+
+// reviewMarks is the review's changes as the Fleet screen marks them.
+func reviewMarks(rv reviewJSON) *tui.ReviewMarks {
+	m := &tui.ReviewMarks{Raised: map[string]map[string]bool{}, Steps: map[string]int{}}
+	if rv.Since != nil {
+		m.Since, _ = time.Parse(time.RFC3339, *rv.Since)
+	}
+	for _, f := range rv.FlagsRaised {
+		name := f.Flag
+		if f.Series == store.SeriesEngine {
+			name = "e-" + f.Flag
+		}
+		if m.Raised[f.Tail] == nil {
+			m.Raised[f.Tail] = map[string]bool{}
+		}
+		m.Raised[f.Tail][name] = true
+	}
+	for _, s := range rv.StepsNew {
+		m.Steps[s.Tail]++
+	}
+	return m
 }
