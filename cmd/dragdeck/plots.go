@@ -77,8 +77,7 @@ func writePlots(dir string, f model.Fleet, c model.TrendConfig, inputs []string)
 		return n, nil
 	}
 	p, shown := fleetPlot(f)
-	h := vg.Length(6+0.45*float64(shown)) * vg.Centimeter
-	return n + 1, save(p, 20*vg.Centimeter, h, filepath.Join(dir, "fleet.png"))
+	return n + 1, save(p, 20*vg.Centimeter, fleetPlotHeight(shown), filepath.Join(dir, "fleet.png"))
 }
 
 // plotNames gives each tail a file name of its own: "tail-" and the tail
@@ -205,6 +204,10 @@ func minMax(v []float64) (float64, float64) {
 	}
 	return lo, hi
 }
+
+// fleetPlotHeight is the height of the fleet picture for its number of
+// tails: a readable line per tail.
+func fleetPlotHeight(tails int) vg.Length { return vg.Length(6+0.45*float64(tails)) * vg.Centimeter }
 
 // fleetPlot draws each tail's recent deviation as a horizontal bar, highest
 // at the top, flagged tails in the flag colour.

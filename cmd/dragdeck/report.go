@@ -227,7 +227,7 @@ func trendFlags(fs *flagSet) func() (model.TrendConfig, error) {
 }
 
 func runReport(e *env, args []string) error {
-	fs := newFlagSet("report", "dragdeck report [--type FILE | --fleet FILE] [--format table|csv|json] [--events FILE] [flags] PATH... | --store FILE",
+	fs := newFlagSet("report", "dragdeck report [--type FILE | --fleet FILE] [--format table|csv|json|html] [--events FILE] [flags] PATH... | --store FILE",
 		`Per-tail drag trend and flags for a fleet (the method is in the README). Every
 accepted snapshot is analysed against the baseline polar; points beyond the
 limits below are left out and counted. Per tail: the recent level (median
@@ -246,7 +246,7 @@ CO2 = 3.16 kg per kg of fuel (ICAO). Tails are sorted by severity. With
 tail's work items in progress are shown.`,
 		"dragdeck report --events fleet/events.csv --fuel-price-per-kg 0.85 fleet/snapshots/")
 	types := fs.typeFlags()
-	format := fs.str("format", "F", "table", "table, csv or json")
+	format := fs.str("format", "F", "table", "table, csv, json or html (one self-contained page for the weekly review: fleet totals, the tails, charts of the flagged ones, from a store the changes since the last review and the work in progress)")
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note): steps are matched to events, trends restart at them")
 	rejects := fs.str("rejects", "FILE", "", "write every rejected row to FILE")
 	plots := fs.str("plots", "DIR", "", "write a PNG per tail and fleet.png into DIR")
@@ -261,9 +261,9 @@ tail's work items in progress are shown.`,
 		return err
 	}
 	switch *format {
-	case "table", "csv", "json":
+	case "table", "csv", "json", "html":
 	default:
-		return usageErrorf("--format: %q is not table, csv or json", *format)
+		return usageErrorf("--format: %q is not table, csv, json or html", *format)
 	}
 	in, err := openInput(e.stderr, fs, types, *storePath, *events)
 	if err != nil {
@@ -312,6 +312,8 @@ tail's work items in progress are shown.`,
 	switch *format {
 	case "json":
 		err = writeReportJSON(e.stdout, r, in.work)
+	case "html":
+		err = writeReportHTML(e.stdout, r, in, time.Now())
 	case "csv":
 		err = writeReportCSV(e.stdout, r, c.FuelPrice)
 	default:
