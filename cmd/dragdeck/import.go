@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -70,6 +71,8 @@ could not be read (then nothing is added).`,
 			return usageErrorf("%s is the store itself", f)
 		}
 	}
+	_, statErr := os.Stat(*storePath)
+	isNew := errors.Is(statErr, os.ErrNotExist)
 	st, err := store.Open(*storePath, true)
 	if err != nil {
 		return usageErrorf("--store: %v", err)
@@ -87,6 +90,12 @@ could not be read (then nothing is added).`,
 		warnUnknown(e.stderr, f)
 	}
 	if err != nil {
+		if isNew { // a store this run made, and left empty: not left behind
+			st.Close()
+			for _, suffix := range []string{"", "-wal", "-shm"} {
+				os.Remove(*storePath + suffix)
+			}
+		}
 		if e.ctx.Err() != nil {
 			return usageErrorf("interrupted; nothing was imported, the store is as it was")
 		}

@@ -85,14 +85,12 @@ type Store struct {
 // missing file is an error (a reading command never makes an empty store
 // by a typing error).
 func Open(path string, create bool) (*Store, error) {
-	if !create {
-		fi, err := os.Stat(path)
-		if err != nil {
-			return nil, fmt.Errorf("store %s: %w", path, err)
-		}
-		if !fi.Mode().IsRegular() {
-			return nil, fmt.Errorf("store %s: not a regular file", path)
-		}
+	fi, err := os.Stat(path)
+	switch {
+	case err != nil && (!create || !errors.Is(err, os.ErrNotExist)):
+		return nil, fmt.Errorf("store %s: %w", path, err)
+	case err == nil && !fi.Mode().IsRegular():
+		return nil, fmt.Errorf("store %s: not a regular file (a folder or a device)", path)
 	}
 	db, err := sql.Open("sqlite", "file:"+path+"?_pragma=busy_timeout(10000)&_pragma=journal_mode(WAL)&_pragma=synchronous(NORMAL)&_pragma=foreign_keys(1)")
 	if err != nil {
