@@ -118,7 +118,7 @@ func TestImportCommandCounts(t *testing.T) {
 	changed := filepath.Join(dir, "changed.csv")
 	os.WriteFile(changed, []byte(lines[h]+"\n"+strings.Join(f, ",")+"\n"), 0o644)
 	code, out, errs := runArgs("import", "--store", db, changed)
-	if code != 0 || !strings.Contains(out, "0 new, 0 duplicate, 1 conflicting") || !strings.Contains(errs, "changed.csv:2:") || !strings.Contains(errs, "weight differ") {
+	if code != 0 || !strings.Contains(out, "0 new, 0 duplicate, 1 conflicting") || !strings.Contains(errs, "changed.csv:2:") || !strings.Contains(errs, "weight differs)") {
 		t.Errorf("a changed row: exit %d\n%s\n%s", code, out, errs)
 	}
 	// a missing path: exit 2, nothing added

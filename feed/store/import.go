@@ -40,8 +40,12 @@ type Conflict struct {
 }
 
 func (c Conflict) String() string {
-	return fmt.Sprintf("%s:%d: %s at %s: conflicts with the stored row from %s (%s differ); the stored row is kept",
-		c.File, c.Line, c.Tail, c.Time.Format(time.RFC3339), c.Stored, strings.Join(c.Fields, ", "))
+	verb := "differ"
+	if len(c.Fields) == 1 {
+		verb = "differs"
+	}
+	return fmt.Sprintf("%s:%d: %s at %s: conflicts with the stored row from %s (%s %s); the stored row is kept",
+		c.File, c.Line, c.Tail, c.Time.Format(time.RFC3339), c.Stored, strings.Join(c.Fields, ", "), verb)
 }
 
 // ImportResult counts what an import did.
