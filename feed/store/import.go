@@ -75,7 +75,7 @@ func (s *Store) Import(ctx context.Context, in ImportInput) (ImportResult, error
 		return res, err
 	}
 	defer tx.Rollback()
-	seen, err := loadDigests(tx)
+	seen, err := loadKeys(tx)
 	if err != nil {
 		return res, err
 	}
@@ -96,18 +96,15 @@ func (s *Store) Import(ctx context.Context, in ImportInput) (ImportResult, error
 			}
 			res.Read++
 			d := digest(r)
-			byTail := seen[r.Tail]
-			if byTail == nil {
-				byTail = map[int64]uint64{}
-				seen[r.Tail] = byTail
-			}
 			key := r.Time.UnixNano()
-			stored, ok := byTail[key]
+			stored, ok, err := seen.lookup(r.Tail, key)
 			switch {
+			case err != nil:
+				failed = err
 			case !ok:
-				byTail[key] = d
+				seen.add(r.Tail, key, d)
 				res.New++
-				failed = ins.add(r, d)
+				failed = ins.add(r)
 			case stored == d:
 				res.Duplicate++
 			default:
@@ -164,18 +161,73 @@ func (s *Store) Import(ctx context.Context, in ImportInput) (ImportResult, error
 	return res, tx.Commit()
 }
 
-// loadDigests reads the key and digest of every stored snapshot.
-func loadDigests(tx *sql.Tx) (map[string]map[int64]uint64, error) {
-	out := map[string]map[int64]uint64{}
-	err := eachBlock(tx, "", nil, func(r feed.Record) {
-		m := out[r.Tail]
-		if m == nil {
-			m = map[int64]uint64{}
-			out[r.Tail] = m
+// keys knows the digest of every snapshot stored or added so far, by tail
+// and time. It reads a stored block only when an incoming snapshot falls
+// in the block's time span, so that a weekly import reads the recent
+// blocks of each tail, not the store's whole history.
+type keys struct {
+	tx      *sql.Tx
+	unread  map[string][]blockSpan // by tail: the blocks not read yet
+	digests map[string]map[int64]uint64
+}
+
+type blockSpan struct{ id, first, last int64 }
+
+// loadKeys reads the blocks' spans (a row per 1,024 snapshots).
+func loadKeys(tx *sql.Tx) (*keys, error) {
+	rows, err := tx.Query("SELECT id, tail, first, last FROM blocks")
+	if err != nil {
+		return nil, err
+	}
+	defer rows.Close()
+	k := &keys{tx: tx, unread: map[string][]blockSpan{}, digests: map[string]map[int64]uint64{}}
+	for rows.Next() {
+		var b blockSpan
+		var tail string
+		if err := rows.Scan(&b.id, &tail, &b.first, &b.last); err != nil {
+			return nil, err
 		}
-		m[r.Time.UnixNano()] = digest(r)
-	})
-	return out, err
+		k.unread[tail] = append(k.unread[tail], b)
+	}
+	return k, rows.Err()
+}
+
+// lookup returns the digest of the tail's snapshot at t (Unix ns), if one
+// is stored or was added.
+func (k *keys) lookup(tail string, t int64) (uint64, bool, error) {
+	spans := k.unread[tail]
+	for i := 0; i < len(spans); {
+		if b := spans[i]; b.first <= t && t <= b.last {
+			if err := k.read(tail, b.id); err != nil {
+				return 0, false, err
+			}
+			spans[i] = spans[len(spans)-1]
+			spans = spans[:len(spans)-1]
+			k.unread[tail] = spans
+			continue
+		}
+		i++
+	}
+	d, ok := k.digests[tail][t]
+	return d, ok, nil
+}
+
+// read adds the digests of one stored block.
+func (k *keys) read(tail string, id int64) error {
+	var data []byte
+	if err := k.tx.QueryRow("SELECT data FROM blocks WHERE id = ?", id).Scan(&data); err != nil {
+		return err
+	}
+	return decodeBlock(tail, data, func(r feed.Record) { k.add(tail, r.Time.UnixNano(), digest(r)) })
+}
+
+func (k *keys) add(tail string, t int64, d uint64) {
+	m := k.digests[tail]
+	if m == nil {
+		m = map[int64]uint64{}
+		k.digests[tail] = m
+	}
+	m[t] = d
 }
 
 // digest is a 64-bit FNV-1a hash of a snapshot's values (flight, the SI
@@ -219,7 +271,7 @@ func newInserter(ctx context.Context, tx *sql.Tx, now int64) (*inserter, error) 
 
 func (in *inserter) close() { in.st.Close() }
 
-func (in *inserter) add(r feed.Record, _ uint64) error {
+func (in *inserter) add(r feed.Record) error {
 	p := append(in.pending[r.Tail], r)
 	in.pending[r.Tail] = p
 	if len(p) == blockSize {

@@ -265,3 +265,35 @@ func TestSchemaUpgradeAndNewer(t *testing.T) {
 		t.Error("a missing store opened without create")
 	}
 }
+
+// An import reads a stored block only when an incoming snapshot falls in
+// its time span: a week's export reads the recent blocks, not the whole
+// history.
+func TestImportReadsOnlyOverlappingBlocks(t *testing.T) {
+	dir := t.TempDir()
+	s, _ := openTemp(t)
+	old := writeSnapshots(t, dir, "old.csv", 3000, 1, nil) // one tail, 3 blocks
+	if _, err := s.Import(context.Background(), ImportInput{Files: []string{old}}); err != nil {
+		t.Fatal(err)
+	}
+	tx, err := s.db.Begin()
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer tx.Rollback()
+	k, err := loadKeys(tx)
+	if err != nil || len(k.unread["T0"]) != 3 {
+		t.Fatalf("%v: %d blocks", err, len(k.unread["T0"]))
+	}
+	var recs []feed.Record
+	feed.ReadFile(old, func(r feed.Record) { recs = append(recs, r) }, nil)
+	later := recs[len(recs)-1].Time.Add(time.Hour).UnixNano()
+	if _, ok, err := k.lookup("T0", later); ok || err != nil || len(k.unread["T0"]) != 3 {
+		t.Errorf("a time after every block: found %v, %v, %d blocks left unread", ok, err, len(k.unread["T0"]))
+	}
+	last := recs[len(recs)-1]
+	d, ok, err := k.lookup("T0", last.Time.UnixNano())
+	if !ok || err != nil || d != digest(last) || len(k.unread["T0"]) != 2 {
+		t.Errorf("the last snapshot: found %v, %v, %d blocks left unread", ok, err, len(k.unread["T0"]))
+	}
+}
