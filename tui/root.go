@@ -377,6 +377,11 @@ func (m *Model) keys() help.KeyMap { return combinedKeys{m.screens[m.active]} }
 type combinedKeys struct{ s Screen }
 
 func (c combinedKeys) ShortHelp() []key.Binding {
+	if cp, ok := c.s.(Capturing); ok && cp.Capturing() {
+		// every key goes to the screen (a filter or a form is typed):
+		// the global keys do not work, so they are not offered
+		return append([]key.Binding{}, c.s.ShortHelp()...)
+	}
 	return append(append([]key.Binding{}, c.s.ShortHelp()...), global.bindings()...)
 }
 

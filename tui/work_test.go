@@ -60,6 +60,9 @@ func TestFleetWorkKey(t *testing.T) {
 	if !m.fleet.Capturing() || m.fleet.form == nil || m.fleet.form.item != nil {
 		t.Fatal("w should open a new item's form")
 	}
+	if v := m.View(); !strings.Contains(v, "enter save") || strings.Contains(v, "next screen") {
+		t.Errorf("while the form is open the help offers its keys only:\n%s", v)
+	}
 	press(m, "q", "enter")
 	if len(w.items) != 1 || w.items[0].Tail != first.Tail || !strings.HasSuffix(w.items[0].Reason, "q") {
 		t.Fatalf("items %+v", w.items)
