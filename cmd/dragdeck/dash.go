@@ -14,6 +14,7 @@ import (
 	"dragdeck/feed"
 	"dragdeck/feed/pipeline"
 	"dragdeck/feed/store"
+	"dragdeck/model"
 	"dragdeck/tui"
 )
 
@@ -69,33 +70,36 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	defer in.close()
 	setDashMemoryLimit(in)
 	progress := &atomic.Int64{}
-	source := in.source()
-	load := func() (*tui.Data, error) {
-		pin := in.pipelineInput(c)
-		pin.KeepRecords, pin.Progress = true, progress
-		r := pipeline.Run(pin)
-		if r.SourceErr != nil {
-			return nil, r.SourceErr
-		}
-		failed := r.Failed()
-		if len(failed) > 0 && len(failed) == len(in.files) {
-			return nil, failed[0].Err
-		}
-		src := source
-		if len(failed) > 0 {
-			src = fmt.Sprintf("%s (%d could not be read: %v)", source, len(failed), failed[0].Err)
-		}
-		d := tui.NewData(src, r)
-		if in.store != nil {
-			rv, err := newReview(in.store, r)
-			if err != nil {
-				return nil, err
-			}
-			d.Work, d.Review = storeWork{in.store}, reviewMarks(rv)
-		}
-		return d, nil
-	}
+	load := func() (*tui.Data, error) { return dashData(in, c, progress) }
 	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(in.files), Progress: progress, Load: load}))
+}
+
+// dashData is what the dashboard loads in the background: the pipeline's
+// result on the input, with the work list and the review marks of a store.
+func dashData(in *input, c model.TrendConfig, progress *atomic.Int64) (*tui.Data, error) {
+	pin := in.pipelineInput(c)
+	pin.KeepRecords, pin.Progress = true, progress
+	r := pipeline.Run(pin)
+	if r.SourceErr != nil {
+		return nil, r.SourceErr
+	}
+	failed := r.Failed()
+	if len(failed) > 0 && len(failed) == len(in.files) {
+		return nil, failed[0].Err
+	}
+	src := in.source()
+	if len(failed) > 0 {
+		src = fmt.Sprintf("%s (%d could not be read: %v)", src, len(failed), failed[0].Err)
+	}
+	d := tui.NewData(src, r)
+	if in.store != nil {
+		rv, err := newReview(in.store, r)
+		if err != nil {
+			return nil, err
+		}
+		d.Work, d.Review = storeWork{in.store}, reviewMarks(rv)
+	}
+	return d, nil
 }
 
 // storeWork is the dashboard's work list: the store's, written at once.

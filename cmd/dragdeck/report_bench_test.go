@@ -3,14 +3,19 @@ package main
 import (
 	"context"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"runtime"
+	"runtime/debug"
 	"strings"
+	"sync/atomic"
 	"testing"
 	"time"
 
+	"dragdeck/feed"
 	"dragdeck/feed/demo"
+	"dragdeck/model"
 )
 
 // benchSnapshots returns a snapshot file of about 1 million rows shaped like
@@ -86,4 +91,34 @@ func BenchmarkImport1M(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(fi.Size())/80*float64(b.N)/b.Elapsed().Seconds(), "rows/s")
+}
+
+// BenchmarkDashboardLoad1M is the dashboard's load on about 1 million
+// snapshots: the time until the Fleet screen has its data (the first frame
+// follows at once: BenchmarkFirstFrame in tui) and the heap the data keep
+// afterwards, with the dashboard's soft memory limit; the process's
+// resident size is about that plus 30-40 MB of runtime and code (measured
+// with the real dashboard: 232 MB resident, 244 MB at its peak).
+func BenchmarkDashboardLoad1M(b *testing.B) {
+	path := benchSnapshots(b)
+	in := &input{roster: model.SingleType(feed.DemoType()), files: []string{path}}
+	setDashMemoryLimit(in)
+	defer debug.SetMemoryLimit(math.MaxInt64)
+	var heap uint64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		d, err := dashData(in, model.DefaultTrendConfig(), &atomic.Int64{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.StopTimer()
+		runtime.GC()
+		var ms runtime.MemStats
+		runtime.ReadMemStats(&ms)
+		heap = max(heap, ms.HeapInuse)
+		runtime.KeepAlive(d)
+		b.StartTimer()
+	}
+	b.ReportMetric(b.Elapsed().Seconds()/float64(b.N), "s-to-fleet")
+	b.ReportMetric(float64(heap)/(1<<20), "heap-MB")
 }
