@@ -29,8 +29,7 @@ func runSource(in Input) *Result {
 	}
 	st, err := in.Source.Each(func(rec feed.Record) {
 		if _, _, why := r.Roster.At(rec.Tail, rec.Time); why != "" {
-			st := &r.Stats
-			st.Rejected++
+			r.Stats.Rejected++ // counted here; the source's counts are added below
 			if in.Reject != nil {
 				in.Reject(&feed.RowError{File: rec.File, Line: rec.Line, Column: "tail", Reason: why, Err: feed.ErrNotInFleet})
 			}
