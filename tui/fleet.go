@@ -480,6 +480,9 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 	if k := len(a.Steps); k > 0 {
 		st := a.Steps[k-1]
 		step = st.Time.Format("2006-01-02") + " " + fmtSigned(st.SizePct, 1)
+		if s.data.Review != nil && s.data.Review.Steps[a.Tail] > 0 {
+			step = "+" + step // a step new since the last review mark
+		}
 		if st.SizePct < 0 {
 			stepStyle = s.st.Improve
 		} else {

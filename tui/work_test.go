@@ -50,7 +50,18 @@ func TestFleetWorkKey(t *testing.T) {
 	d := *base
 	w := &fakeWork{}
 	d.Work = w
-	d.Review = &ReviewMarks{Since: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Raised: map[string]map[string]bool{}}
+	d.Review = &ReviewMarks{Since: time.Date(2026, 6, 1, 0, 0, 0, 0, time.UTC), Raised: map[string]map[string]bool{}, Steps: map[string]int{}}
+	newStep := ""
+	for _, a := range d.Fleet.Tails {
+		if k := len(a.Steps); k > 0 {
+			d.Review.Steps[a.Tail] = 1
+			newStep = "+" + a.Steps[k-1].Time.Format("2006-01-02")
+			break
+		}
+	}
+	if newStep == "" {
+		t.Fatal("no tail with a step in the test fleet")
+	}
 	first := d.Fleet.Tails[0]
 	if len(first.Flags) > 0 {
 		d.Review.Raised[first.Tail] = map[string]bool{first.Flags[0]: true}
@@ -73,6 +84,9 @@ func TestFleetWorkKey(t *testing.T) {
 	view := m.View()
 	if !strings.Contains(view, "work item #1 opened") || !strings.Contains(view, " open ") {
 		t.Errorf("the screen does not show the new item:\n%s", view)
+	}
+	if !strings.Contains(view, newStep) {
+		t.Errorf("the step new since the review is not marked %s:\n%s", newStep, view)
 	}
 	if len(first.Flags) > 0 && !strings.Contains(view, "+"+first.Flags[0]) {
 		t.Errorf("the flag raised since the review is not marked:\n%s", view)

@@ -36,13 +36,13 @@ var reportTemplate = template.Must(template.New("report").Funcs(template.FuncMap
 		}
 		return signed(*v, prec)
 	},
-	"tonnes": func(v *float64) string {
+	// thousands shows kg as tonnes (and money as thousands), signed
+	"thousands": func(v *float64) string {
 		if v == nil {
 			return "–"
 		}
 		return signed(*v/1000, 0)
 	},
-	"join": strings.Join,
 }).Parse(reportHTML))
 
 // htmlPage is what the template draws.
@@ -60,7 +60,6 @@ type htmlPage struct {
 	Engine    *htmlTotals
 	HasEngine bool
 	HasPrice  bool
-	Price     float64
 	Rows      []htmlRow
 	Overview  template.HTML
 	Charts    []htmlChart
@@ -73,7 +72,7 @@ type htmlPage struct {
 
 type htmlTotals struct {
 	FuelKg, CO2T, Money, MedianPct *float64
-	Flagged, Tails                 int
+	Flagged                        int
 }
 
 type htmlRow struct {
@@ -87,7 +86,6 @@ type htmlRow struct {
 	HasEngine           bool
 	FuelKg, CO2T, Money *float64
 	Work                string
-	Points, Flights     int
 }
 
 type htmlChart struct {
@@ -102,8 +100,8 @@ func writeReportHTML(w io.Writer, r *pipeline.Result, in *input, now time.Time) 
 	pg := htmlPage{
 		Title: "Fleet drag report", Source: in.source(), Types: r.Roster.Label(), Generated: now.UTC().Format("2006-01-02 15:04 UTC"),
 		Tails: len(f.Tails), Read: r.Stats.Read, Rejected: r.Stats.Rejected, Flagged: f.Flagged,
-		Airframe: htmlTotals{FuelKg: num(f.ExcessFuel), CO2T: num(f.CO2 / 1000), MedianPct: num(f.MedianRecentPct), Flagged: f.Flagged, Tails: len(f.Tails)},
-		HasPrice: c.FuelPrice > 0, Price: c.FuelPrice, Settings: c, Caution: caution, Store: in.store != nil,
+		Airframe: htmlTotals{FuelKg: num(f.ExcessFuel), CO2T: num(f.CO2 / 1000), MedianPct: num(f.MedianRecentPct), Flagged: f.Flagged},
+		HasPrice: c.FuelPrice > 0, Settings: c, Caution: caution, Store: in.store != nil,
 	}
 	if pg.HasPrice {
 		pg.Airframe.Money = num(f.Money)
@@ -114,14 +112,14 @@ func writeReportHTML(w io.Writer, r *pipeline.Result, in *input, now time.Time) 
 	}
 	if e := r.Engine; len(e.Tails) > 0 {
 		pg.HasEngine = true
-		pg.Engine = &htmlTotals{FuelKg: num(e.ExcessFuel), CO2T: num(e.CO2 / 1000), MedianPct: num(e.MedianRecentPct), Flagged: e.Flagged, Tails: len(e.Tails)}
+		pg.Engine = &htmlTotals{FuelKg: num(e.ExcessFuel), CO2T: num(e.CO2 / 1000), MedianPct: num(e.MedianRecentPct), Flagged: e.Flagged}
 		if pg.HasPrice {
 			pg.Engine.Money = num(e.Money)
 		}
 	}
 	for _, a := range f.Tails {
 		row := htmlRow{Tail: a.Tail, Type: a.Type, Level: num(a.RecentPct), Drift: num(a.Drift.Slope), Flags: a.Flags,
-			FuelKg: num(a.ExcessFuel), CO2T: num(a.CO2 / 1000), Points: a.Points, Flights: len(a.Flights), Work: "–"}
+			FuelKg: num(a.ExcessFuel), CO2T: num(a.CO2 / 1000), Work: "–"}
 		if pg.HasPrice {
 			row.Money = num(a.Money)
 		}
