@@ -60,12 +60,33 @@ func TestSelectionMatchesSort(t *testing.T) {
 // TheilSen by selection equals TheilSen by a full sort of the slopes.
 func TestTheilSenSelection(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
-	for _, n := range []int{3, 4, 10, 57, 180, 181} {
-		x, y := make([]float64, n), make([]float64, n)
-		for i := range x {
-			x[i] = float64(i/2) + 0.1*float64(i%2) // some near ties
-			y[i] = 0.02*x[i] + rng.NormFloat64()
+	// Normal noise, heavy tails, many tied x and y (above 4,096 pairs the
+	// slopes are selected within a sampled range: theilSenWindow).
+	noise := map[string]func(x float64) float64{
+		"normal":  func(x float64) float64 { return 0.02*x + rng.NormFloat64() },
+		"cauchy":  func(x float64) float64 { return 0.02*x + rng.NormFloat64()/rng.NormFloat64() },
+		"rounded": func(x float64) float64 { return math.Round(0.02*x + rng.NormFloat64()) },
+		"steps":   func(x float64) float64 { return math.Floor(x / 40) },
+	}
+	for _, name := range []string{"normal", "cauchy", "rounded", "steps"} {
+		for _, n := range []int{3, 4, 10, 57, 90, 91, 180, 181, 400} {
+			x, y := make([]float64, n), make([]float64, n)
+			for i := range x {
+				x[i] = float64(i/2) + 0.1*float64(i%2) // some near ties
+				if name != "normal" && i%3 == 0 {
+					x[i] = float64(i / 3) // exact ties
+				}
+				y[i] = noise[name](x[i])
+			}
+			checkTheilSen(t, name, x, y)
 		}
+	}
+}
+
+func checkTheilSen(t *testing.T, name string, x, y []float64) {
+	t.Helper()
+	n := len(x)
+	{
 		got := TheilSen(x, y, 0.95)
 		var slopes []float64
 		for i := 0; i < n; i++ {
@@ -81,7 +102,22 @@ func TestTheilSenSelection(t *testing.T) {
 		lo := max(int(math.Floor((N-c)/2))-1, 0)
 		hi := min(int(math.Ceil((N+c)/2)), len(slopes)-1)
 		if got.Slope != sortedMedian(slopes) || got.Lo != slopes[lo] || got.Hi != slopes[hi] {
-			t.Errorf("n %d: %+v; sorted slopes give %v [%v, %v]", n, got, sortedMedian(slopes), slopes[lo], slopes[hi])
+			t.Errorf("%s n %d: %+v; sorted slopes give %v [%v, %v]", name, n, got, sortedMedian(slopes), slopes[lo], slopes[hi])
 		}
 	}
+}
+
+// BenchmarkTheilSen: the drift's Theil–Sen on 180 daily medians (16,110
+// pair slopes), slopes/s.
+func BenchmarkTheilSen(b *testing.B) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	x, y := make([]float64, 180), make([]float64, 180)
+	for i := range x {
+		x[i], y[i] = float64(i)+0.3*rng.Float64(), 0.01*float64(i)+rng.NormFloat64()
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		TheilSen(x, y, 0.95)
+	}
+	b.ReportMetric(float64(len(x)*(len(x)-1)/2*b.N)/b.Elapsed().Seconds(), "slopes/s")
 }

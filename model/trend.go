@@ -369,20 +369,26 @@ func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) 
 var errNoPoints = errors.New("no usable snapshots")
 
 // typicalCruise is the median weight, level, Mach and ISA deviation of pts.
+// One buffer serves the four columns (each median reorders it).
 func typicalCruise(pts []TrendPoint) Cruise {
-	col := func(f func(TrendPoint) float32) float64 {
-		v := make([]float64, len(pts))
-		for i, p := range pts {
-			v[i] = float64(f(p))
+	v := make([]float64, len(pts))
+	col := func(k int) float64 {
+		for i := range pts {
+			p := &pts[i]
+			switch k {
+			case 0:
+				v[i] = float64(p.Weight)
+			case 1:
+				v[i] = float64(p.Altitude)
+			case 2:
+				v[i] = float64(p.Mach)
+			default:
+				v[i] = float64(p.ISADev)
+			}
 		}
 		return median(v)
 	}
-	return Cruise{
-		Weight:   col(func(p TrendPoint) float32 { return p.Weight }),
-		Altitude: col(func(p TrendPoint) float32 { return p.Altitude }),
-		Mach:     col(func(p TrendPoint) float32 { return p.Mach }),
-		ISADev:   col(func(p TrendPoint) float32 { return p.ISADev }),
-	}
+	return Cruise{Weight: col(0), Altitude: col(1), Mach: col(2), ISADev: col(3)}
 }
 
 // fitPolar fits the tail's own polar over its current segment: from the
