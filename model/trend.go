@@ -9,11 +9,12 @@ import (
 	"time"
 )
 
-// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 104
-// bytes, and a million of them are a year of a large fleet.
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 72
+// bytes and no pointer (its time in nanoseconds, its flight by id), so
+// that a million of them, a year of a large fleet, take 72 MB and are
+// never scanned by the garbage collector.
 type TrendPoint struct {
-	Time             time.Time
-	Flight           string
+	UnixNano         int64   // time, ns since 1970-01-01 UTC (At gives it as a time)
 	DevPct           float64 // drag deviation, % of baseline drag
 	FuelFlowExpected float64 // kg/s on the baseline polar
 	// EngineDevPct is the engine deviation, % (thrust from fan speed),
@@ -22,7 +23,8 @@ type TrendPoint struct {
 	EngineDevPct float64
 	// Ref says where the snapshot's row is, for reading it again (a
 	// replay): set by whoever read it; 0 when unknown.
-	Ref int64
+	Ref    int64
+	Flight FlightID // the flight's name in the points' FlightNames
 
 	// For the tail's own polar and its typical cruise (single precision is
 	// ample for both).
@@ -39,6 +41,18 @@ type TrendPoint struct {
 	// (TrendConfig.NewPoint) its bank, vertical speed or acceleration
 	// passes; ManoeuvreNone when none. The values themselves are not kept.
 	Manoeuvre Manoeuvre
+}
+
+// At returns the point's time (UTC).
+func (p *TrendPoint) At() time.Time { return time.Unix(0, p.UnixNano).UTC() }
+
+// Nanos is t in ns since 1970-01-01 UTC, the time of a TrendPoint; the zero
+// time gives the smallest value, before every point.
+func Nanos(t time.Time) int64 {
+	if t.IsZero() {
+		return math.MinInt64
+	}
+	return t.UnixNano()
 }
 
 // Manoeuvre is the first of bank, vertical speed and acceleration that is
@@ -78,7 +92,7 @@ func EngineSeries(pts []TrendPoint) []TrendPoint {
 // NewPoint makes the trend's point of an analysed snapshot s taken at time
 // t in flight f, judging its manoeuvre against c's limits (Usable must be
 // asked with the same limits).
-func (c *TrendConfig) NewPoint(t time.Time, f string, s Snapshot, p Point) TrendPoint {
+func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s Snapshot, p Point) TrendPoint {
 	m := ManoeuvreNone
 	switch {
 	case math.Abs(s.Bank) > c.MaxBank:
@@ -88,7 +102,7 @@ func (c *TrendConfig) NewPoint(t time.Time, f string, s Snapshot, p Point) Trend
 	case math.Abs(s.Accel) > c.MaxAccel:
 		m = ManoeuvreAccel
 	}
-	return TrendPoint{Time: t, Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
+	return TrendPoint{UnixNano: t.UnixNano(), Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
 		OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m,
 		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
 		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
@@ -97,10 +111,11 @@ func (c *TrendConfig) NewPoint(t time.Time, f string, s Snapshot, p Point) Trend
 // PolarPoints returns the polar-fit points of the usable points among pts
 // (in time order) taken at or after from (zero: all).
 func PolarPoints(pts []TrendPoint, c TrendConfig, from time.Time) []PolarPoint {
-	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(from) }) // pts in time order
+	at := Nanos(from)
+	i := sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= at }) // pts in time order
 	out := make([]PolarPoint, 0, len(pts)-i)
 	for _, p := range pts[i:] {
-		if c.Usable(p) == "" && !p.Time.Before(from) {
+		if c.Usable(p) == "" && p.UnixNano >= at {
 			out = append(out, PolarPoint{CL: float64(p.CL), CDMeasured: float64(p.CDLessWave)})
 		}
 	}
@@ -278,10 +293,16 @@ func NewFlight(prevFlight string, prevTime time.Time, flight string, t time.Time
 	return flight != prevFlight || t.Sub(prevTime).Hours() > gapHours
 }
 
+// NextFlight is NewFlight for two points of a tail: whether b, after a,
+// starts a new flight.
+func NextFlight(a, b *TrendPoint, gapHours float64) bool {
+	return a.Flight != b.Flight || time.Duration(b.UnixNano-a.UnixNano).Hours() > gapHours
+}
+
 // Flights groups time-ordered usable points into flights: a new flight
-// starts when the flight name changes or the gap exceeds gapHours; each
-// flight's deviation is the median of its snapshots.
-func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
+// starts when the flight changes or the gap exceeds gapHours; each
+// flight's deviation is the median of its snapshots, its name from names.
+func Flights(pts []TrendPoint, names *FlightNames, gapHours float64) []FlightPoint {
 	out := make([]FlightPoint, 0, len(pts)/2+1) // most flights have two snapshots or more
 	var devs []float64
 	start := 0
@@ -293,10 +314,10 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 		for _, p := range pts[start:end] {
 			devs = append(devs, p.DevPct)
 		}
-		out = append(out, FlightPoint{Time: pts[start].Time, Flight: pts[start].Flight, DevPct: median(devs), N: end - start})
+		out = append(out, FlightPoint{Time: pts[start].At(), Flight: names.Name(pts[start].Flight), DevPct: median(devs), N: end - start})
 	}
 	for i := 1; i <= len(pts); i++ {
-		if i == len(pts) || NewFlight(pts[i-1].Flight, pts[i-1].Time, pts[i].Flight, pts[i].Time, gapHours) {
+		if i == len(pts) || NextFlight(&pts[i-1], &pts[i], gapHours) {
 			flush(i)
 			start = i
 		}
@@ -309,8 +330,9 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 // level; steps from a piecewise-linear segmentation of the per-flight series
 // (runs also start at events), kept when the jump between the two fitted
 // lines is significant; and the drift as the Theil–Sen slope of the daily
-// medians over the trailing DriftDays after the last step.
-func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) TailTrend {
+// medians over the trailing DriftDays after the last step. names gives the
+// names of the points' flights.
+func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Event, c TrendConfig) TailTrend {
 	tr := TailTrend{Tail: tail, Excluded: map[string]int{}, RecentPct: math.NaN(),
 		Drift:            Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN()},
 		FuelFlowExpected: math.NaN(), ImplausibleMedianPct: math.NaN(),
@@ -328,21 +350,21 @@ func AnalyzeTrend(tail string, pts []TrendPoint, events []Event, c TrendConfig) 
 		usable = append(usable, p)
 	}
 	tr.ImplausibleMedianPct = median(implausible)
-	sort.SliceStable(usable, func(i, j int) bool { return usable[i].Time.Before(usable[j].Time) })
+	sort.SliceStable(usable, func(i, j int) bool { return usable[i].UnixNano < usable[j].UnixNano })
 	tr.Points = len(usable)
 	tr.Events = append([]Event(nil), events...)
 	sort.SliceStable(tr.Events, func(i, j int) bool { return tr.Events[i].Time.Before(tr.Events[j].Time) })
 	if len(usable) == 0 {
 		return tr
 	}
-	tr.First, tr.Last = usable[0].Time, usable[len(usable)-1].Time
+	tr.First, tr.Last = usable[0].At(), usable[len(usable)-1].At()
 	ff := make([]float64, len(usable))
 	for i, p := range usable {
 		ff[i] = p.FuelFlowExpected
 	}
 	tr.FuelFlowExpected = median(ff)
 	tr.Typical = typicalCruise(usable)
-	tr.Flights = Flights(usable, c.FlightGap)
+	tr.Flights = Flights(usable, names, c.FlightGap)
 	devs := make([]float64, len(tr.Flights))
 	for i, f := range tr.Flights {
 		devs[i] = f.DevPct

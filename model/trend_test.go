@@ -3,6 +3,7 @@ package model
 import (
 	"math"
 	"math/rand/v2"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -10,6 +11,9 @@ import (
 )
 
 var day0 = time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
+
+// testFlights names the flights of the tests' points.
+var testFlights = NewFlightNames()
 
 // series makes one point per flight, two flights a day, with deviation
 // f(day) plus normal noise sigma.
@@ -20,7 +24,7 @@ func series(nDays int, sigma float64, seed uint64, f func(d float64) float64) []
 		for k := 0; k < 2; k++ {
 			t := day0.Add(time.Duration(d*24+6+8*k) * time.Hour)
 			x := float64(d) + float64(6+8*k)/24
-			pts = append(pts, TrendPoint{Time: t, Flight: "F" + string(rune('A'+k)), DevPct: f(x) + sigma*rng.NormFloat64(), FuelFlowExpected: 0.7})
+			pts = append(pts, TrendPoint{UnixNano: t.UnixNano(), Flight: testFlights.ID("F" + string(rune('A'+k))), DevPct: f(x) + sigma*rng.NormFloat64(), FuelFlowExpected: 0.7})
 		}
 	}
 	return pts
@@ -122,13 +126,13 @@ func TestSegmentLines(t *testing.T) {
 
 func TestFlights(t *testing.T) {
 	pts := []TrendPoint{
-		{Time: day0, Flight: "A", DevPct: 1},
-		{Time: day0.Add(20 * time.Minute), Flight: "A", DevPct: 3},
-		{Time: day0.Add(40 * time.Minute), Flight: "A", DevPct: 2},
-		{Time: day0.Add(3 * time.Hour), Flight: "B", DevPct: 5},
-		{Time: day0.Add(24 * time.Hour), Flight: "B", DevPct: 7}, // same name, next day
+		{UnixNano: day0.UnixNano(), Flight: testFlights.ID("A"), DevPct: 1},
+		{UnixNano: day0.Add(20 * time.Minute).UnixNano(), Flight: testFlights.ID("A"), DevPct: 3},
+		{UnixNano: day0.Add(40 * time.Minute).UnixNano(), Flight: testFlights.ID("A"), DevPct: 2},
+		{UnixNano: day0.Add(3 * time.Hour).UnixNano(), Flight: testFlights.ID("B"), DevPct: 5},
+		{UnixNano: day0.Add(24 * time.Hour).UnixNano(), Flight: testFlights.ID("B"), DevPct: 7}, // same name, next day
 	}
-	f := Flights(pts, 6)
+	f := Flights(pts, testFlights, 6)
 	if len(f) != 3 || f[0].DevPct != 2 || f[0].N != 3 || f[1].DevPct != 5 || f[2].DevPct != 7 {
 		t.Errorf("flights %+v", f)
 	}
@@ -185,7 +189,7 @@ func TestAnalyzeTrend(t *testing.T) {
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			tr := AnalyzeTrend("T1", tc.pts, nil, c)
+			tr := AnalyzeTrend("T1", tc.pts, testFlights, nil, c)
 			if math.Abs(tr.RecentPct-tc.recent) > 0.25 {
 				t.Errorf("recent level %.2f, want %.2f", tr.RecentPct, tc.recent)
 			}
@@ -217,7 +221,7 @@ func TestAnalyzeTrendEvent(t *testing.T) {
 		return 4
 	})
 	ev := []Event{{Time: day0.Add(200 * 24 * time.Hour), Kind: "repair", Note: "seal replaced"}}
-	tr := AnalyzeTrend("T1", pts, ev, DefaultTrendConfig())
+	tr := AnalyzeTrend("T1", pts, testFlights, ev, DefaultTrendConfig())
 	if len(tr.Steps) != 1 || tr.Steps[0].Event == nil || tr.Steps[0].Event.Kind != "repair" || math.Abs(tr.Steps[0].SizePct+4) > 0.3 {
 		t.Fatalf("steps %+v", tr.Steps)
 	}
@@ -235,7 +239,7 @@ func TestAnalyzeTrendEvent(t *testing.T) {
 // drift of 1 pp per 100 days it reproduces the series itself.
 func TestDriftLine(t *testing.T) {
 	pts := series(200, 0, 1, func(d float64) float64 { return 0.5 + 0.01*d })
-	tr := AnalyzeTrend("T1", pts, nil, DefaultTrendConfig())
+	tr := AnalyzeTrend("T1", pts, testFlights, nil, DefaultTrendConfig())
 	if math.Abs(tr.Drift.Slope-1) > 1e-9 {
 		t.Fatalf("drift %+v, want 1 pp/100 d", tr.Drift)
 	}
@@ -253,11 +257,11 @@ func TestDriftLine(t *testing.T) {
 // points excluded, and an empty fleet.
 func TestTrendEdgeCases(t *testing.T) {
 	c := DefaultTrendConfig()
-	one := AnalyzeTrend("ONE", []TrendPoint{{Time: day0, Flight: "A", DevPct: 1.5, FuelFlowExpected: 0.6}}, nil, c)
+	one := AnalyzeTrend("ONE", []TrendPoint{{UnixNano: day0.UnixNano(), Flight: testFlights.ID("A"), DevPct: 1.5, FuelFlowExpected: 0.6}}, testFlights, nil, c)
 	if one.Points != 1 || len(one.Flights) != 1 || one.RecentPct != 1.5 || !math.IsNaN(one.Drift.Slope) || len(one.Steps) != 0 {
 		t.Errorf("one flight: %+v", one)
 	}
-	bad := AnalyzeTrend("BAD", []TrendPoint{{Time: day0, DevPct: 40}, {Time: day0, DevPct: 1, Manoeuvre: ManoeuvreBank}}, nil, c)
+	bad := AnalyzeTrend("BAD", []TrendPoint{{UnixNano: day0.UnixNano(), DevPct: 40}, {UnixNano: day0.UnixNano(), DevPct: 1, Manoeuvre: ManoeuvreBank}}, testFlights, nil, c)
 	if bad.Points != 0 || bad.Excluded[ExcludeImplausible] != 1 || bad.Excluded[ExcludeBank] != 1 || !math.IsNaN(bad.RecentPct) {
 		t.Errorf("all excluded: %+v", bad)
 	}
@@ -360,7 +364,7 @@ func TestRollingMedian(t *testing.T) {
 // about −55 %) has no level, and says why.
 func TestTrendWhy(t *testing.T) {
 	pts := series(40, 0.3, 2, func(float64) float64 { return -55 })
-	tr := AnalyzeTrend("T1", pts, nil, DefaultTrendConfig())
+	tr := AnalyzeTrend("T1", pts, testFlights, nil, DefaultTrendConfig())
 	why := tr.Why()
 	if !math.IsNaN(tr.RecentPct) || !strings.Contains(why, "all 80 snapshots left out") || !strings.Contains(why, "-55 %") ||
 		!strings.Contains(why, "all engines") {
@@ -370,15 +374,19 @@ func TestTrendWhy(t *testing.T) {
 	if !math.IsNaN(f.Tails[0].ExcessFuel) {
 		t.Errorf("excess fuel %g without a level, want NaN (null in JSON)", f.Tails[0].ExcessFuel)
 	}
-	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), nil, DefaultTrendConfig()); ok.Why() != "" {
+	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), testFlights, nil, DefaultTrendConfig()); ok.Why() != "" {
 		t.Errorf("a tail with a level says %q", ok.Why())
 	}
 }
 
-// A trend point stays compact: a year of a large fleet is millions of them.
+// A trend point stays compact, and holds no pointer for the garbage
+// collector to follow: a year of a large fleet is millions of them.
 func TestTrendPointSize(t *testing.T) {
-	if n := unsafe.Sizeof(TrendPoint{}); n > 104 {
-		t.Errorf("TrendPoint is %d bytes, want at most 104", n)
+	if typ := reflect.TypeFor[TrendPoint](); hasPointer(typ) {
+		t.Errorf("TrendPoint holds a pointer")
+	}
+	if n := unsafe.Sizeof(TrendPoint{}); n > 72 {
+		t.Errorf("TrendPoint is %d bytes, want at most 72", n)
 	}
 }
 
@@ -397,7 +405,7 @@ func BenchmarkAnalyzeTrend(b *testing.B) {
 	for _, p := range base { // three snapshots a flight
 		for k := 0; k < 3; k++ {
 			q := p
-			q.Time = p.Time.Add(time.Duration(20*k) * time.Minute)
+			q.UnixNano = p.UnixNano + int64(time.Duration(20*k)*time.Minute)
 			q.CL, q.CDLessWave = 0.5+0.01*float32(k), 0.028+0.0005*float32(k)
 			pts = append(pts, q)
 		}
@@ -405,7 +413,27 @@ func BenchmarkAnalyzeTrend(b *testing.B) {
 	c := DefaultTrendConfig()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		AnalyzeTrend("T", pts, nil, c)
+		AnalyzeTrend("T", pts, testFlights, nil, c)
 	}
 	b.ReportMetric(float64(len(pts)*b.N)/b.Elapsed().Seconds(), "points/s")
+}
+
+// hasPointer reports whether a value of typ holds a pointer (a string, a
+// slice, a map, a time.Time's location…).
+func hasPointer(typ reflect.Type) bool {
+	switch typ.Kind() {
+	case reflect.Struct:
+		for i := range typ.NumField() {
+			if hasPointer(typ.Field(i).Type) {
+				return true
+			}
+		}
+		return false
+	case reflect.Array:
+		return hasPointer(typ.Elem())
+	case reflect.Bool, reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64,
+		reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64, reflect.Float32, reflect.Float64:
+		return false
+	}
+	return true
 }

@@ -203,7 +203,8 @@ func (s *flightScreen) seek(n int) {
 		}
 		s.points = append(s.points, p)
 		if why == "" {
-			why = s.cfg.Usable(s.cfg.NewPoint(r.Time, r.Flight, snap, p))
+			// the flight does not decide whether a point is usable
+			why = s.cfg.Usable(s.cfg.NewPoint(r.Time, 0, snap, p))
 		}
 		s.left = append(s.left, why)
 	}

@@ -167,7 +167,7 @@ func fitType(r *pipeline.Result) (*model.Type, error) {
 	for tail, pts := range r.Points {
 		seen := map[string]bool{}
 		for _, p := range pts {
-			e, t, _ := r.Roster.At(tail, p.Time)
+			e, t, _ := r.Roster.At(tail, p.At())
 			if t == nil || seen[e.Type] {
 				continue
 			}

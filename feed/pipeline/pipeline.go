@@ -70,7 +70,8 @@ type Result struct {
 	// when it was, and when files were read).
 	SourceErr error
 
-	tailIdx, engineIdx map[string]int // place of each tail in Fleet.Tails and Engine.Tails
+	tailIdx, engineIdx map[string]int     // place of each tail in Fleet.Tails and Engine.Tails
+	names              *model.FlightNames // the flights of Points
 	// refs: the points say where their rows are (TrendPoint.Ref: the
 	// file's index in paths, and the row's offset), for FlightRecords.
 	refs    bool
@@ -154,19 +155,33 @@ func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 	return out
 }
 
+// flightRange returns the points of flight f of the tail, pts[i:j]: from
+// the flight's first point while its flight holds and no gap exceeds the
+// configured flight gap (i == j: none).
+func (r *Result) flightRange(tail string, f model.FlightPoint) (pts []model.TrendPoint, i, j int) {
+	pts = r.Points[tail]
+	id, ok := r.names.Lookup(f.Flight)
+	if !ok {
+		return pts, 0, 0
+	}
+	at := f.Time.UnixNano()
+	i = sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= at })
+	for j = i; j < len(pts); j++ {
+		if pts[j].Flight != id || (j > i && model.NextFlight(&pts[j-1], &pts[j], r.Config.FlightGap)) {
+			break
+		}
+	}
+	return pts, i, j
+}
+
 // readFlight reads the rows of flight f of the tail again from their files
 // (the points say where they are), in time order.
 func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
-	pts := r.Points[tail]
-	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(f.Time) })
+	pts, i, j := r.flightRange(tail, f)
 	byFile := map[int][]int64{}
-	at := map[int64]time.Time{} // Ref → the point's time, to know the row again
+	at := map[int64]int64{} // Ref → the point's time, to know the row again
 	var order []int
-	for k := i; k < len(pts); k++ {
-		p := pts[k]
-		if p.Flight != f.Flight || (k > i && model.NewFlight(f.Flight, pts[k-1].Time, p.Flight, p.Time, r.Config.FlightGap)) {
-			break
-		}
+	for _, p := range pts[i:j] {
 		if p.Ref == 0 {
 			continue
 		}
@@ -175,7 +190,7 @@ func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
 			order = append(order, fi)
 		}
 		byFile[fi] = append(byFile[fi], p.Ref&(1<<refBits-1)-1)
-		at[p.Ref] = p.Time
+		at[p.Ref] = p.UnixNano
 	}
 	var out []feed.Record
 	slices.Sort(order)
@@ -186,13 +201,13 @@ func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
 		}
 		for _, rec := range recs {
 			// the same tail and time, or the file changed since it was read
-			if t, ok := at[int64(fi)<<refBits|(rec.Offset+1)]; ok && rec.Tail == tail && rec.Time.Equal(t) {
+			if t, ok := at[int64(fi)<<refBits|(rec.Offset+1)]; ok && rec.Tail == tail && rec.Time.UnixNano() == t {
 				out = append(out, rec)
 			}
 		}
 	}
 	sort.SliceStable(out, func(a, b int) bool { return out[a].Time.Before(out[b].Time) })
-	out, _ = dedupe(out, func(r feed.Record) time.Time { return r.Time })
+	out, _ = dedupe(out, func(r *feed.Record) int64 { return r.Time.UnixNano() })
 	return out
 }
 
@@ -321,7 +336,7 @@ func newResult(in Input, files int) *Result {
 	} else {
 		typ = roster.Single()
 	}
-	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files)}
+	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames()}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -345,7 +360,7 @@ func (r *Result) TypeOf(tail string) *model.Type {
 	if len(pts) == 0 {
 		return nil
 	}
-	return r.TypeAt(tail, pts[len(pts)-1].Time)
+	return r.TypeAt(tail, pts[len(pts)-1].At())
 }
 
 // add analyses one record with the type in force for its tail at its time
@@ -359,7 +374,7 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	tp := r.Config.NewPoint(rec.Time, rec.Flight, snap, p)
+	tp := r.Config.NewPoint(rec.Time, r.names.ID(rec.Flight), snap, p)
 	if r.refs {
 		if fi, known := r.fileIdx[rec.File]; known {
 			tp.Ref = int64(fi)<<refBits | (rec.Offset + 1)
@@ -406,24 +421,24 @@ func (r *Result) assess(in Input) {
 			for i := range jobs {
 				tail := tails[i]
 				pts := r.Points[tail]
-				sort.SliceStable(pts, func(a, b int) bool { return pts[a].Time.Before(pts[b].Time) })
-				pts, dups[i] = dedupe(pts, func(p model.TrendPoint) time.Time { return p.Time })
+				sort.SliceStable(pts, func(a, b int) bool { return pts[a].UnixNano < pts[b].UnixNano })
+				pts, dups[i] = dedupe(pts, func(p *model.TrendPoint) int64 { return p.UnixNano })
 				pointsOf[i] = pts
 				if recs := r.Records[tail]; recs != nil {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
-					recordsOf[i], _ = dedupe(recs, func(r feed.Record) time.Time { return r.Time })
+					recordsOf[i], _ = dedupe(recs, func(r *feed.Record) int64 { return r.Time.UnixNano() })
 				}
 				af, en := model.SplitEvents(in.Events[tail])
 				af = append(af, r.Roster.Changes(tail)...)
 				var last model.RosterEntry
 				if len(pts) > 0 {
-					last, _, _ = r.Roster.At(tail, pts[len(pts)-1].Time)
+					last, _, _ = r.Roster.At(tail, pts[len(pts)-1].At())
 				}
-				trends[i] = model.AnalyzeTrend(tail, pts, af, in.Config)
+				trends[i] = model.AnalyzeTrend(tail, pts, r.names, af, in.Config)
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
 				if ep := model.EngineSeries(pts); len(ep) > 0 {
 					hasEngine[i] = true
-					engine[i] = model.AnalyzeTrend(tail, ep, en, in.Config.EngineSeries())
+					engine[i] = model.AnalyzeTrend(tail, ep, r.names, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
 			}
@@ -455,13 +470,13 @@ func (r *Result) assess(in Input) {
 // dedupe drops from s, in time order, each element whose time equals the
 // one before it (one tail's snapshots: a repeat of a tail and time), and
 // returns what is left and how many were dropped.
-func dedupe[T any](s []T, at func(T) time.Time) ([]T, int) {
+func dedupe[T any](s []T, at func(*T) int64) ([]T, int) {
 	if len(s) < 2 {
 		return s, 0
 	}
 	k := 1
 	for i := 1; i < len(s); i++ {
-		if !at(s[i]).Equal(at(s[k-1])) {
+		if at(&s[i]) != at(&s[k-1]) {
 			s[k] = s[i]
 			k++
 		}

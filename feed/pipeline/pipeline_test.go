@@ -44,7 +44,7 @@ func TestRun(t *testing.T) {
 	}
 	for tail, pts := range one.Points {
 		for i := 1; i < len(pts); i++ {
-			if pts[i].Time.Before(pts[i-1].Time) {
+			if pts[i].UnixNano < pts[i-1].UnixNano {
 				t.Fatalf("%s: points not in time order at %d", tail, i)
 			}
 		}

@@ -1,7 +1,6 @@
 package pipeline
 
 import (
-	"sort"
 	"time"
 
 	"dragdeck/feed"
@@ -49,19 +48,11 @@ func runSource(in Input) *Result {
 // sourceFlight reads flight f of the tail back from the source: the rows
 // from its first point to its last, of its flight name.
 func (r *Result) sourceFlight(tail string, f model.FlightPoint) []feed.Record {
-	pts := r.Points[tail]
-	i := sort.Search(len(pts), func(i int) bool { return !pts[i].Time.Before(f.Time) })
-	j := i
-	for ; j < len(pts); j++ {
-		p := pts[j]
-		if p.Flight != f.Flight || (j > i && model.NewFlight(f.Flight, pts[j-1].Time, p.Flight, p.Time, r.Config.FlightGap)) {
-			break
-		}
-	}
+	pts, i, j := r.flightRange(tail, f)
 	if j == i {
 		return nil
 	}
-	recs, err := r.src.Flight(tail, pts[i].Time, pts[j-1].Time)
+	recs, err := r.src.Flight(tail, pts[i].At(), pts[j-1].At())
 	if err != nil {
 		return nil // the store went since it was read: nothing to show
 	}
