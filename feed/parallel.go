@@ -25,8 +25,9 @@ type part struct {
 	rejects    []*RowError
 	stats      Stats
 	lines      int
-	headerAt   bool  // it holds a header line: read again from its start, in order
-	err        error // an I/O error
+	headerAt   bool   // it holds a header line: read again from its start, in order
+	err        error  // an I/O error
+	merge      func() // what the work on its records gave, to hand on (ReadFileParts)
 	done       chan struct{}
 }
 
@@ -41,6 +42,57 @@ type part struct {
 // ReadFileWith reads it. A small file, or workers < 2, is read by
 // ReadFileWith.
 func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Record), reject func(*RowError)) FileResult {
+	return readParts(path, opt, workers, nil, accept, reject)
+}
+
+// ReadFileParts is ReadFileParallel for a caller that works on the records
+// itself in parallel: work is given the records of one part (a few
+// thousand, in file order) on the goroutine that decoded them, at the same
+// time as other parts; the function it returns is called in file order on
+// the caller's goroutine, between the rejects of the parts before and
+// after, to hand its result on. Within work a record's Line counts from
+// the start of its part (its Offset is the file's); the slice is reused
+// once work returns. Where the file is read by one decoder (a small file,
+// workers < 2, after a header line inside the file), work and then what it
+// returns are called on the caller's goroutine, every batchRecords records,
+// with the file's own lines.
+func ReadFileParts(path string, opt ReadOptions, workers int, work func(recs []Record) func(), reject func(*RowError)) FileResult {
+	var batch []Record
+	flush := func() {
+		if len(batch) > 0 {
+			work(batch)()
+			batch = batch[:0]
+		}
+	}
+	accept := func(r Record) {
+		if batch == nil {
+			batch = make([]Record, 0, batchRecords)
+		}
+		batch = append(batch, r)
+		if len(batch) == batchRecords {
+			flush()
+		}
+	}
+	rejectInOrder := func(e *RowError) { // the records before a reject are handed on first
+		flush()
+		if reject != nil {
+			reject(e)
+		}
+	}
+	res := readParts(path, opt, workers, work, accept, rejectInOrder)
+	flush()
+	return res
+}
+
+// batchRecords is how many records ReadFileParts gives work at a time
+// where one decoder reads.
+const batchRecords = 4096
+
+// readParts reads path by parts, as ReadFileParallel and ReadFileParts do:
+// with work nil, every record goes to accept in order; else the records of
+// each part go to work on their goroutine, and the records read by one
+// decoder go to accept.
+func readParts(path string, opt ReadOptions, workers int, work func([]Record) func(), accept func(Record), reject func(*RowError)) FileResult {
 	fi, err := os.Stat(path)
 	if workers < 2 || err != nil || !fi.Mode().IsRegular() || fi.Size() < minParallel {
 		return ReadFileWith(path, opt, accept, reject)
@@ -90,6 +142,9 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 					parts[k].recs = make([]Record, 0, (parts[k].end-parts[k].start)/40+16)
 				}
 				decodePart(f, path, hdr, opt, parts[k])
+				if work != nil && parts[k].err == nil && !parts[k].headerAt {
+					parts[k].merge = work(parts[k].recs)
+				}
 				close(parts[k].done)
 			}
 		}()
@@ -111,10 +166,14 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 			res.Notices, res.Err = rest.Notices, rest.Err
 			break
 		}
-		for i := range p.recs {
-			p.recs[i].Line += line
-			if accept != nil {
-				accept(p.recs[i])
+		if p.merge != nil {
+			p.merge()
+		} else {
+			for i := range p.recs {
+				p.recs[i].Line += line
+				if accept != nil {
+					accept(p.recs[i])
+				}
 			}
 		}
 		for _, e := range p.rejects {
@@ -129,7 +188,7 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 		case free <- p.recs[:0]:
 		default:
 		}
-		parts[k].recs, parts[k].rejects = nil, nil
+		parts[k].recs, parts[k].rejects, parts[k].merge = nil, nil, nil
 	}
 	return res
 }

@@ -11,7 +11,7 @@ import (
 )
 
 // ReadFileParallel hands on exactly what ReadFileWith does, in the same
-// order and with the same lines: on files with broken rows, comments,
+// order and with the same lines, and ReadFileParts the same records: on files with broken rows, comments,
 // CRLF line ends, a BOM, a too-long line, a last line without its end and
 // a second header (which switches to one decoder from its part on).
 func TestReadFileParallelSameAsOne(t *testing.T) {
@@ -66,6 +66,24 @@ func TestReadFileParallelSameAsOne(t *testing.T) {
 				// Offset is where the row's line starts in the file
 				if at := gotRecs[i].Time.Format(time.RFC3339); !strings.HasPrefix(data[gotRecs[i].Offset:], at) {
 					t.Fatalf("record %d at offset %d: %.30q, want it to start with %s", i, gotRecs[i].Offset, data[gotRecs[i].Offset:], at)
+				}
+			}
+			// ReadFileParts: the same records (lines aside: within work they
+			// count from the part's start) and rejects, in the same order.
+			var partRecs []Record
+			var partRej []string
+			parts := ReadFileParts(p, ReadOptions{}, 3, func(recs []Record) func() {
+				mine := append([]Record(nil), recs...)
+				return func() { partRecs = append(partRecs, mine...) }
+			}, func(e *RowError) { partRej = append(partRej, e.Error()) })
+			if parts.Stats != want.Stats || len(partRecs) != len(wantRecs) || !reflect.DeepEqual(partRej, wantRej) {
+				t.Fatalf("parts: %+v, %d records, rejects %q; one decoder %+v, %d, %q", parts, len(partRecs), partRej, want, len(wantRecs), wantRej)
+			}
+			for i := range partRecs {
+				g, w := partRecs[i], wantRecs[i]
+				g.Line, w.Line = 0, 0
+				if !reflect.DeepEqual(g, w) {
+					t.Fatalf("parts: record %d: %+v, one decoder %+v", i, g, w)
 				}
 			}
 		})

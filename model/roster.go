@@ -132,15 +132,57 @@ func (r *Roster) At(tail string, t time.Time) (e RosterEntry, typ *Type, why str
 		return RosterEntry{Tail: tail, Type: r.single.Name}, r.single, ""
 	}
 	es := r.entries[tail]
+	i, why := entryAt(tail, es, t)
+	if why != "" {
+		return RosterEntry{}, nil, why
+	}
+	return es[i], r.Types[es[i].Type], ""
+}
+
+// entryAt is the index of the entry of es (one tail's, ascending Since) in
+// force at t, or why there is none.
+func entryAt(tail string, es []RosterEntry, t time.Time) (int, string) {
 	if len(es) == 0 {
-		return RosterEntry{}, nil, fmt.Sprintf("tail %s is not in the fleet file", tail)
+		return 0, fmt.Sprintf("tail %s is not in the fleet file", tail)
+	}
+	if len(es) == 1 && !es[0].Since.After(t) { // most tails: one entry
+		return 0, ""
 	}
 	i := sort.Search(len(es), func(i int) bool { return es[i].Since.After(t) })
 	if i == 0 {
-		return RosterEntry{}, nil, fmt.Sprintf("tail %s has no fleet-file entry before %s", tail, es[0].Since.Format("2006-01-02"))
+		return 0, fmt.Sprintf("tail %s has no fleet-file entry before %s", tail, es[0].Since.Format("2006-01-02"))
 	}
-	e = es[i-1]
-	return e, r.Types[e.Type], ""
+	return i - 1, ""
+}
+
+// TailRoster is one tail's part of a roster, its entries with their types,
+// for analysing many snapshots of the tail without looking it up for each.
+type TailRoster struct {
+	tail    string
+	single  *Type
+	entries []RosterEntry
+	types   []*Type // of entries
+}
+
+// Tail returns the roster of one tail.
+func (r *Roster) Tail(tail string) TailRoster {
+	tr := TailRoster{tail: tail, single: r.single, entries: r.entries[tail]}
+	for _, e := range tr.entries {
+		tr.types = append(tr.types, r.Types[e.Type])
+	}
+	return tr
+}
+
+// Analyze is Roster.Analyze for the tail.
+func (tr *TailRoster) Analyze(t time.Time, s Snapshot) (Point, Snapshot, *Type, string) {
+	if tr.single != nil {
+		return Analyze(tr.single, s), s, tr.single, ""
+	}
+	i, why := entryAt(tr.tail, tr.entries, t)
+	if why != "" {
+		return Point{}, s, nil, why
+	}
+	return analyzeCorrected(tr.types[i], tr.entries[i].FuelFlowCorrectionPct, s)
 }
 
 // Changes returns the type changes of a tail (a retrofit, a conversion): the
@@ -170,8 +212,13 @@ func (r *Roster) Analyze(tail string, t time.Time, s Snapshot) (Point, Snapshot,
 	if typ == nil {
 		return Point{}, s, nil, why
 	}
-	if e.FuelFlowCorrectionPct != 0 {
-		s.FuelFlow *= 1 + e.FuelFlowCorrectionPct/100
+	return analyzeCorrected(typ, e.FuelFlowCorrectionPct, s)
+}
+
+// analyzeCorrected analyses s with typ, its fuel flow corrected by pct.
+func analyzeCorrected(typ *Type, pct float64, s Snapshot) (Point, Snapshot, *Type, string) {
+	if pct != 0 {
+		s.FuelFlow *= 1 + pct/100
 	}
 	return Analyze(typ, s), s, typ, ""
 }

@@ -2,6 +2,7 @@ package model
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -15,7 +16,7 @@ func TestRosterAt(t *testing.T) {
 	r, err := NewRoster("test", map[string]*Type{"A": a, "B": b}, []RosterEntry{
 		{Tail: "T1", Type: "A", Line: 1},
 		{Tail: "T1", Type: "B", Since: day("2026-03-01"), Line: 2},
-		{Tail: "T2", Type: "B", Since: day("2026-02-01"), CruiseHours: 3000, Line: 3},
+		{Tail: "T2", Type: "B", Since: day("2026-02-01"), CruiseHours: 3000, FuelFlowCorrectionPct: -2, Line: 3},
 	})
 	if err != nil {
 		t.Fatal(err)
@@ -36,6 +37,14 @@ func TestRosterAt(t *testing.T) {
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			e, typ, why := r.At(c.tail, c.at)
+			// the tail's own roster analyses as the roster does (NaN and
+			// all: compared as printed)
+			tr := r.Tail(c.tail)
+			s := cruiseSnapshot(a, 0)
+			one := fmt.Sprint(r.Analyze(c.tail, c.at, s))
+			if got := fmt.Sprint(tr.Analyze(c.at, s)); got != one {
+				t.Errorf("TailRoster.Analyze gives %s; Roster.Analyze %s", got, one)
+			}
 			if c.want == "" {
 				if typ != nil || !strings.Contains(why, c.why) {
 					t.Fatalf("got %v %q, want none with %q", typ, why, c.why)

@@ -79,6 +79,8 @@ type Result struct {
 	fileIdx map[string]int
 	opt     feed.ReadOptions
 	src     Source // where FlightRecords reads a flight again, for a run on a Source
+
+	mu sync.Mutex // merge: the parts of files read side by side
 }
 
 // refBits is where the file's index starts in a TrendPoint.Ref; below it
@@ -221,9 +223,6 @@ func (r *Result) PolarPoints(tail string, currentSegment bool) []model.PolarPoin
 	return model.PolarPoints(r.Points[tail], r.Config, from)
 }
 
-// batchSize is how many records travel together from reader to analyser.
-const batchSize = 4096
-
 // Run reads in.Paths and assesses the fleet. Files are read concurrently and
 // analysed as they are parsed, so that one large file uses two cores. A file
 // that cannot be read is in Result.Files with its error; the others are
@@ -243,16 +242,6 @@ func Run(in Input) *Result {
 		}
 		r.opt = feed.ReadOptions{CheckTail: feed.RosterCheck(r.Roster)}
 	}
-	batches := make(chan []feed.Record, 8)
-	free := make(chan []feed.Record, 16) // batches to reuse
-	getBatch := func() []feed.Record {
-		select {
-		case b := <-free:
-			return b[:0]
-		default:
-			return make([]feed.Record, 0, batchSize)
-		}
-	}
 	var rejMu sync.Mutex
 	onReject := func(e *feed.RowError) {
 		if in.Reject != nil {
@@ -264,43 +253,32 @@ func Run(in Input) *Result {
 	jobs := make(chan int)
 	var wg sync.WaitGroup
 	// Files are read side by side; a file is cut into parts for the
-	// cores that no other file uses (one big export on its own).
+	// cores that no other file uses (one big export on its own). Each part
+	// is analysed where it was decoded (analysePart) and its points are
+	// filed under their tails in file order (merge).
 	perFile := max(1, runtime.GOMAXPROCS(0)/max(1, len(in.Paths)))
 	for w := 0; w < max(1, min(runtime.GOMAXPROCS(0), len(in.Paths))); w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for i := range jobs {
-				batch := getBatch()
 				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: feed.RosterCheck(r.Roster)}
-				r.Files[i] = feed.ReadFileParallel(in.Paths[i], opt, perFile, func(rec feed.Record) {
-					batch = append(batch, rec)
-					if len(batch) == batchSize {
-						batches <- batch
-						batch = getBatch()
-					}
+				ref := int64(-1)
+				if r.refs {
+					ref = int64(r.fileIdx[in.Paths[i]])
+				}
+				r.Files[i] = feed.ReadFileParts(in.Paths[i], opt, perFile, func(recs []feed.Record) func() {
+					pp := r.analysePart(in, recs, ref)
+					return func() { r.merge(pp) }
 				}, onReject)
-				batches <- batch
 			}
 		}()
 	}
-	go func() {
-		for i := range in.Paths {
-			jobs <- i
-		}
-		close(jobs)
-		wg.Wait()
-		close(batches)
-	}()
-	for batch := range batches {
-		for _, rec := range batch {
-			r.add(in, rec)
-		}
-		select {
-		case free <- batch:
-		default:
-		}
+	for i := range in.Paths {
+		jobs <- i
 	}
+	close(jobs)
+	wg.Wait()
 	for _, f := range r.Files {
 		r.Stats.Add(f.Stats)
 	}

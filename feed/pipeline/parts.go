@@ -1,0 +1,126 @@
+package pipeline
+
+import (
+	"math"
+	"sync"
+	"time"
+
+	"dragdeck/feed"
+	"dragdeck/model"
+)
+
+// partPoints is the analysis of one part of a file (a few thousand rows):
+// its points by tail, each tail's in file order, with flights numbered
+// within the part (flights gives their names), and the span of their times.
+type partPoints struct {
+	tails       []tailPoints
+	at          map[string]int // tail → its place in tails
+	flights     []string
+	flightAt    map[string]model.FlightID
+	first, last int64 // ns; first > last: no point
+}
+
+// tailPoints is one tail's points of a part.
+type tailPoints struct {
+	tail       string
+	pts        []model.TrendPoint
+	lastFlight string // the last point's flight and its id: most rows
+	lastID     model.FlightID
+	roster     model.TailRoster
+}
+
+// parts keeps the partPoints that were merged, for the parts after them.
+var parts = sync.Pool{New: func() any {
+	return &partPoints{at: map[string]int{}, flightAt: map[string]model.FlightID{}}
+}}
+
+// analysePart analyses the records of one part, on the goroutine that
+// decoded them, as add does one record: the type in force for its tail at
+// its time, the fuel flow corrected by the fleet file's meter bias. ref is
+// the file's index for the points' Ref (−1: none kept).
+func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoints {
+	pp := parts.Get().(*partPoints)
+	pp.first, pp.last = math.MaxInt64, math.MinInt64
+	for i := range recs {
+		rec := &recs[i]
+		if in.Filter != nil && !in.Filter(*rec) {
+			continue
+		}
+		tp := pp.tail(r.Roster, rec.Tail)
+		p, snap, typ, _ := tp.roster.Analyze(rec.Time, rec.Snap)
+		if typ == nil {
+			continue // rejected by the reader's tail check
+		}
+		if len(tp.pts) == 0 || rec.Flight != tp.lastFlight {
+			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(rec.Flight)
+		}
+		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
+		if ref >= 0 {
+			pt.Ref = ref<<refBits | (rec.Offset + 1)
+		}
+		tp.pts = append(tp.pts, pt)
+		pp.first, pp.last = min(pp.first, pt.UnixNano), max(pp.last, pt.UnixNano)
+	}
+	return pp
+}
+
+// tail returns the part's points of a tail, reusing the slices of a part
+// merged before.
+func (pp *partPoints) tail(r *model.Roster, name string) *tailPoints {
+	if i, ok := pp.at[name]; ok {
+		return &pp.tails[i]
+	}
+	i := len(pp.tails)
+	pp.at[name] = i
+	if i < cap(pp.tails) {
+		pp.tails = pp.tails[:i+1]
+		pp.tails[i].tail, pp.tails[i].pts = name, pp.tails[i].pts[:0]
+	} else {
+		pp.tails = append(pp.tails, tailPoints{tail: name})
+	}
+	pp.tails[i].roster = r.Tail(name)
+	return &pp.tails[i]
+}
+
+// flight returns the part's id of a flight name.
+func (pp *partPoints) flight(name string) model.FlightID {
+	if id, ok := pp.flightAt[name]; ok {
+		return id
+	}
+	id := model.FlightID(len(pp.flights))
+	pp.flights = append(pp.flights, name)
+	pp.flightAt[name] = id
+	return id
+}
+
+// merge files a part's points under their tails, after those of the parts
+// before it, with the flights numbered in the result's table, and gives
+// the part back to the pool.
+func (r *Result) merge(pp *partPoints) {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	ids := make([]model.FlightID, len(pp.flights))
+	for i, name := range pp.flights {
+		ids[i] = r.names.ID(name)
+	}
+	for i := range pp.tails {
+		tp := &pp.tails[i]
+		for k := range tp.pts {
+			tp.pts[k].Flight = ids[tp.pts[k].Flight]
+		}
+		r.Points[tp.tail] = append(r.Points[tp.tail], tp.pts...)
+	}
+	if pp.first <= pp.last {
+		if first := time.Unix(0, pp.first).UTC(); r.First.IsZero() || first.Before(r.First) {
+			r.First = first
+		}
+		if last := time.Unix(0, pp.last).UTC(); last.After(r.Last) {
+			r.Last = last
+		}
+	}
+	pp.tails = pp.tails[:0]
+	pp.flights = pp.flights[:0]
+	clear(pp.at)
+	clear(pp.flightAt)
+	parts.Put(pp)
+}
