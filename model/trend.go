@@ -1,11 +1,14 @@
 package model
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -174,6 +177,11 @@ type TrendConfig struct {
 
 	CruiseHours float64 // per year, for the cost (2,500 h)
 	FuelPrice   float64 // per kg of fuel, for the cost (0: no money figure)
+
+	// SkipCruise leaves the typical cruise and the tail's own polar out of
+	// the trend (Typical stays NaN, PolarErr says why): the engine series,
+	// whose snapshots are the airframe's, has no use for them again.
+	SkipCruise bool
 }
 
 // DefaultTrendConfig returns the defaults of DESIGN.md §4.8–§4.10.
@@ -190,9 +198,10 @@ func DefaultTrendConfig() TrendConfig {
 
 // EngineSeries returns c with the engine series' flag thresholds in place
 // of the airframe's: the configuration under which an engine series is
-// trended and flagged.
+// trended and flagged (without a typical cruise and polar: SkipCruise).
 func (c TrendConfig) EngineSeries() TrendConfig {
 	c.LevelPP, c.GrowthPP, c.StepPP = c.EngineLevelPP, c.EngineGrowthPP, c.EngineStepPP
+	c.SkipCruise = true
 	return c
 }
 
@@ -337,7 +346,10 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		Drift:            Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN()},
 		FuelFlowExpected: math.NaN(), ImplausibleMedianPct: math.NaN(),
 		Typical: Cruise{math.NaN(), math.NaN(), math.NaN(), math.NaN()}, PolarErr: errNoPoints}
-	usable := make([]TrendPoint, 0, len(pts))
+	sc := scratches.Get().(*scratch)
+	defer scratches.Put(sc)
+	usable := sc.usable[:0]
+	defer func() { sc.usable = usable[:0] }()
 	var implausible []float64
 	for _, p := range pts {
 		if why := c.Usable(p); why != "" {
@@ -350,7 +362,9 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		usable = append(usable, p)
 	}
 	tr.ImplausibleMedianPct = median(implausible)
-	sort.SliceStable(usable, func(i, j int) bool { return usable[i].UnixNano < usable[j].UnixNano })
+	if !slices.IsSortedFunc(usable, byTime) { // the pipeline's are
+		slices.SortStableFunc(usable, byTime)
+	}
 	tr.Points = len(usable)
 	tr.Events = append([]Event(nil), events...)
 	sort.SliceStable(tr.Events, func(i, j int) bool { return tr.Events[i].Time.Before(tr.Events[j].Time) })
@@ -358,12 +372,15 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		return tr
 	}
 	tr.First, tr.Last = usable[0].At(), usable[len(usable)-1].At()
-	ff := make([]float64, len(usable))
-	for i, p := range usable {
-		ff[i] = p.FuelFlowExpected
+	ff := slices.Grow(sc.col[:0], len(usable))[:len(usable)]
+	sc.col = ff
+	for i := range usable {
+		ff[i] = usable[i].FuelFlowExpected
 	}
 	tr.FuelFlowExpected = median(ff)
-	tr.Typical = typicalCruise(usable)
+	if !c.SkipCruise {
+		tr.Typical = typicalCruise(usable, ff)
+	}
 	tr.Flights = Flights(usable, names, c.FlightGap)
 	devs := make([]float64, len(tr.Flights))
 	for i, f := range tr.Flights {
@@ -384,16 +401,29 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 
 	tr.findSteps(c)
 	tr.findDrift(c)
-	tr.fitPolar(usable, c)
+	if !c.SkipCruise {
+		tr.fitPolar(usable, c)
+	}
 	return tr
 }
 
 var errNoPoints = errors.New("no usable snapshots")
 
+// byTime orders points by time.
+func byTime(a, b TrendPoint) int { return cmp.Compare(a.UnixNano, b.UnixNano) }
+
+// scratch is AnalyzeTrend's buffers, kept from one tail to the next
+// (scratches): the usable points and a column of values.
+type scratch struct {
+	usable []TrendPoint
+	col    []float64
+}
+
+var scratches = sync.Pool{New: func() any { return new(scratch) }}
+
 // typicalCruise is the median weight, level, Mach and ISA deviation of pts.
-// One buffer serves the four columns (each median reorders it).
-func typicalCruise(pts []TrendPoint) Cruise {
-	v := make([]float64, len(pts))
+// The buffer v (len(pts)) serves the four columns (each median reorders it).
+func typicalCruise(pts []TrendPoint, v []float64) Cruise {
 	col := func(k int) float64 {
 		for i := range pts {
 			p := &pts[i]
