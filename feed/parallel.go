@@ -1,6 +1,7 @@
 package feed
 
 import (
+	"bufio"
 	"bytes"
 	"errors"
 	"io"
@@ -121,6 +122,7 @@ func readParts(path string, opt ReadOptions, workers int, work func([]Record) fu
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			var pr partReader
 			for {
 				select {
 				case slots <- struct{}{}:
@@ -141,7 +143,7 @@ func readParts(path string, opt ReadOptions, workers int, work func([]Record) fu
 				default:
 					parts[k].recs = make([]Record, 0, (parts[k].end-parts[k].start)/40+16)
 				}
-				decodePart(f, path, hdr, opt, parts[k])
+				decodePart(f, path, hdr, opt, parts[k], &pr)
 				if work != nil && parts[k].err == nil && !parts[k].headerAt {
 					parts[k].merge = work(parts[k].recs)
 				}
@@ -262,16 +264,29 @@ func partDecoder(path string, hdr *header, opt ReadOptions) *Decoder {
 	return d
 }
 
-// decodePart reads one part with its own decoder, lines counted from the
-// part's start.
-func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part) {
+// partReader is a worker's reader of parts: its decoder keeps the names
+// it has interned and its buffer from one part to the next.
+type partReader struct {
+	d  *Decoder
+	br *bufio.Reader
+}
+
+// decodePart reads one part with the worker's decoder, lines counted from
+// the part's start.
+func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part, pr *partReader) {
 	var src io.Reader = io.NewSectionReader(f, p.start, p.end-p.start)
 	if opt.Progress != nil {
 		src = countingReader{src, opt.Progress}
 	}
-	r := NewReader(src, path)
-	r.d = partDecoder(path, hdr, opt)
-	r.d.stopAtHeader = true
+	if pr.d == nil {
+		pr.d = partDecoder(path, hdr, opt)
+		pr.d.stopAtHeader = true
+		pr.br = bufio.NewReaderSize(src, 64<<10)
+	} else {
+		pr.br.Reset(src)
+	}
+	pr.d.stats = Stats{} // counted per part
+	r := &Reader{d: pr.d, br: pr.br}
 	r.offBase = p.start
 	err := r.each(func(rec Record) { p.recs = append(p.recs, rec) }, func(e *RowError) { p.rejects = append(p.rejects, e) })
 	switch {
