@@ -15,8 +15,12 @@ func median(v []float64) float64 {
 	if n == 0 {
 		return math.NaN()
 	}
-	if n <= 32 || hasNaN(v) {
+	if hasNaN(v) {
 		sort.Float64s(v)
+		return sortedMedian(v)
+	}
+	if n <= 32 { // a flight's few snapshots
+		insertionSort(v)
 		return sortedMedian(v)
 	}
 	k := n / 2
@@ -25,6 +29,17 @@ func median(v []float64) float64 {
 		return v[k]
 	}
 	return 0.5 * (maxOf(v[:k]) + v[k])
+}
+
+// insertionSort sorts a short v holding no NaN.
+func insertionSort(v []float64) {
+	for i := 1; i < len(v); i++ {
+		x, j := v[i], i
+		for ; j > 0 && v[j-1] > x; j-- {
+			v[j] = v[j-1]
+		}
+		v[j] = x
+	}
 }
 
 // Median returns the median of v without changing v (NaN for none); the

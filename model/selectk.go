@@ -3,7 +3,6 @@ package model
 import (
 	"math"
 	"slices"
-	"sort"
 )
 
 // selectK reorders v so that v[k] is the value sort.Float64s would put
@@ -109,11 +108,11 @@ func sortedMedian(v []float64) float64 {
 type slidingWindow struct{ sorted []float64 }
 
 func (s *slidingWindow) insert(x float64) {
-	i := sort.SearchFloat64s(s.sorted, x)
+	i, _ := slices.BinarySearch(s.sorted, x)
 	s.sorted = slices.Insert(s.sorted, i, x)
 }
 
 func (s *slidingWindow) remove(x float64) {
-	i := sort.SearchFloat64s(s.sorted, x) // the first equal value: any will do
+	i, _ := slices.BinarySearch(s.sorted, x) // the first equal value: any will do
 	s.sorted = slices.Delete(s.sorted, i, i+1)
 }
