@@ -104,15 +104,25 @@ func sortedMedian(v []float64) float64 {
 
 // slidingWindow is a sorted copy of a window of values that slides along
 // a series: each step inserts and removes one value, where sorting each
-// window anew costs w log w.
+// window anew costs w log w. The windows are short (21 flights), so a
+// value's place is found by the shift that makes it.
 type slidingWindow struct{ sorted []float64 }
 
 func (s *slidingWindow) insert(x float64) {
-	i, _ := slices.BinarySearch(s.sorted, x)
-	s.sorted = slices.Insert(s.sorted, i, x)
+	v := append(s.sorted, x)
+	i := len(v) - 1
+	for ; i > 0 && v[i-1] > x; i-- { // a short window: shifting is the search
+		v[i] = v[i-1]
+	}
+	v[i] = x
+	s.sorted = v
 }
 
 func (s *slidingWindow) remove(x float64) {
-	i, _ := slices.BinarySearch(s.sorted, x) // the first equal value: any will do
-	s.sorted = slices.Delete(s.sorted, i, i+1)
+	v := s.sorted
+	i := 0
+	for i < len(v)-1 && v[i] < x { // the first equal value: any will do
+		i++
+	}
+	s.sorted = append(v[:i], v[i+1:]...)
 }
