@@ -234,14 +234,18 @@ func (c *TrendConfig) Usable(p TrendPoint) string {
 	return ""
 }
 
-// FlightPoint is the median deviation of one flight.
+// FlightPoint is the median deviation of one flight: 32 bytes and no
+// pointer, as a fleet has hundreds of thousands of flights.
 type FlightPoint struct {
-	Time       time.Time // first snapshot of the flight
-	Flight     string
+	UnixNano   int64 // first snapshot of the flight, ns since 1970-01-01 UTC (At)
 	DevPct     float64
-	RollingPct float64 // rolling median of DevPct over 2·RollingHalf+1 flights
-	N          int     // snapshots
+	RollingPct float64  // rolling median of DevPct over 2·RollingHalf+1 flights
+	Flight     FlightID // its name: TailTrend.FlightName
+	N          int32    // snapshots
 }
+
+// At is the time of the flight's first snapshot (UTC).
+func (f FlightPoint) At() time.Time { return time.Unix(0, f.UnixNano).UTC() }
 
 // Step is a sudden change of a tail's deviation.
 type Step struct {
@@ -265,6 +269,7 @@ type TailTrend struct {
 	First, Last time.Time
 
 	Flights []FlightPoint
+	Names   *FlightNames // the names of the flights
 
 	RecentPct float64 // median of the per-flight deviations of the last RecentDays; NaN if none
 
@@ -286,6 +291,9 @@ type TailTrend struct {
 	ImplausibleMedianPct float64
 }
 
+// FlightName is the name of one of the tail's flights.
+func (tr *TailTrend) FlightName(f FlightPoint) string { return tr.Names.Name(f.Flight) }
+
 // DriftAt is the drift line at time t, in %: Sen's line through the daily
 // medians of the drift window. NaN without a drift.
 func (tr *TailTrend) DriftAt(t time.Time) float64 {
@@ -294,6 +302,9 @@ func (tr *TailTrend) DriftAt(t time.Time) float64 {
 
 // days is t in days since base.
 func days(t, base time.Time) float64 { return t.Sub(base).Hours() / 24 }
+
+// daysNs is days for a time in ns since 1970 (a point's or a flight's).
+func daysNs(ns int64, base time.Time) float64 { return time.Duration(ns-base.UnixNano()).Hours() / 24 }
 
 // NewFlight reports whether a snapshot of flight id flight at t starts a new
 // flight after one of prevFlight at prevTime, of the same tail: the id
@@ -310,9 +321,15 @@ func NextFlight(a, b *TrendPoint, gapHours float64) bool {
 
 // Flights groups time-ordered usable points into flights: a new flight
 // starts when the flight changes or the gap exceeds gapHours; each
-// flight's deviation is the median of its snapshots, its name from names.
-func Flights(pts []TrendPoint, names *FlightNames, gapHours float64) []FlightPoint {
-	out := make([]FlightPoint, 0, len(pts)/2+1) // most flights have two snapshots or more
+// flight's deviation is the median of its snapshots.
+func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
+	n := min(len(pts), 1)
+	for i := 1; i < len(pts); i++ {
+		if NextFlight(&pts[i-1], &pts[i], gapHours) {
+			n++
+		}
+	}
+	out := make([]FlightPoint, 0, n) // a fleet's flights are a third of its snapshots: no room to spare
 	var devs []float64
 	start := 0
 	flush := func(end int) {
@@ -323,7 +340,7 @@ func Flights(pts []TrendPoint, names *FlightNames, gapHours float64) []FlightPoi
 		for _, p := range pts[start:end] {
 			devs = append(devs, p.DevPct)
 		}
-		out = append(out, FlightPoint{Time: pts[start].At(), Flight: names.Name(pts[start].Flight), DevPct: median(devs), N: end - start})
+		out = append(out, FlightPoint{UnixNano: pts[start].UnixNano, Flight: pts[start].Flight, DevPct: median(devs), N: int32(end - start)})
 	}
 	for i := 1; i <= len(pts); i++ {
 		if i == len(pts) || NextFlight(&pts[i-1], &pts[i], gapHours) {
@@ -342,7 +359,7 @@ func Flights(pts []TrendPoint, names *FlightNames, gapHours float64) []FlightPoi
 // medians over the trailing DriftDays after the last step. names gives the
 // names of the points' flights.
 func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Event, c TrendConfig) TailTrend {
-	tr := TailTrend{Tail: tail, Excluded: map[string]int{}, RecentPct: math.NaN(),
+	tr := TailTrend{Tail: tail, Names: names, Excluded: map[string]int{}, RecentPct: math.NaN(),
 		Drift:            Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN()},
 		FuelFlowExpected: math.NaN(), ImplausibleMedianPct: math.NaN(),
 		Typical: Cruise{math.NaN(), math.NaN(), math.NaN(), math.NaN()}, PolarErr: errNoPoints}
@@ -381,7 +398,7 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 	if !c.SkipCruise {
 		tr.Typical = typicalCruise(usable, ff)
 	}
-	tr.Flights = Flights(usable, names, c.FlightGap)
+	tr.Flights = Flights(usable, c.FlightGap)
 	devs := make([]float64, len(tr.Flights))
 	for i, f := range tr.Flights {
 		devs[i] = f.DevPct
@@ -393,7 +410,7 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 	recentFrom := tr.Last.Add(-time.Duration(c.RecentDays * 24 * float64(time.Hour)))
 	var recent []float64
 	for _, f := range tr.Flights {
-		if !f.Time.Before(recentFrom) {
+		if f.UnixNano >= recentFrom.UnixNano() {
 			recent = append(recent, f.DevPct)
 		}
 	}
@@ -463,7 +480,7 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 	n := len(tr.Flights)
 	x, y := make([]float64, n), make([]float64, n)
 	for i, f := range tr.Flights {
-		x[i], y[i] = days(f.Time, tr.First), f.DevPct
+		x[i], y[i] = daysNs(f.UnixNano, tr.First), f.DevPct
 	}
 	sigma := NoiseSigma(y)
 	if n < 2*max(c.MinSegment, 3) || math.IsNaN(sigma) || sigma == 0 {
@@ -474,7 +491,7 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 	}
 	var forced []int
 	for _, e := range tr.Events {
-		i := sort.Search(n, func(i int) bool { return !tr.Flights[i].Time.Before(e.Time) })
+		i := sort.Search(n, func(i int) bool { return tr.Flights[i].UnixNano >= e.Time.UnixNano() })
 		if i > 0 && i < n {
 			forced = append(forced, i)
 		}
@@ -508,7 +525,7 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 		if math.Abs(size) < c.MinStepPct {
 			continue
 		}
-		st := Step{Time: tr.Flights[b].Time, SizePct: size, SE: se}
+		st := Step{Time: tr.Flights[b].At(), SizePct: size, SE: se}
 		// An event at the boundary, or the nearest within EventMatchDays.
 		best := c.EventMatchDays
 		for k := range tr.Events {
@@ -545,10 +562,10 @@ func (tr *TailTrend) findDrift(c TrendConfig) {
 		}
 	}
 	for _, f := range tr.Flights {
-		if f.Time.Before(from) {
+		if f.UnixNano < from.UnixNano() {
 			continue
 		}
-		fx := days(f.Time, tr.First)
+		fx := daysNs(f.UnixNano, tr.First)
 		if d := math.Floor(fx); d != cur {
 			flushDay()
 			cur = d

@@ -132,9 +132,12 @@ func TestFlights(t *testing.T) {
 		{UnixNano: day0.Add(3 * time.Hour).UnixNano(), Flight: testFlights.ID("B"), DevPct: 5},
 		{UnixNano: day0.Add(24 * time.Hour).UnixNano(), Flight: testFlights.ID("B"), DevPct: 7}, // same name, next day
 	}
-	f := Flights(pts, testFlights, 6)
+	f := Flights(pts, 6)
 	if len(f) != 3 || f[0].DevPct != 2 || f[0].N != 3 || f[1].DevPct != 5 || f[2].DevPct != 7 {
 		t.Errorf("flights %+v", f)
+	}
+	if len(f) == 3 && (testFlights.Name(f[1].Flight) != "B" || !f[2].At().Equal(day0.Add(24*time.Hour))) {
+		t.Errorf("flight 2 is %q, flight 3 at %v", testFlights.Name(f[1].Flight), f[2].At())
 	}
 }
 
@@ -244,8 +247,8 @@ func TestDriftLine(t *testing.T) {
 		t.Fatalf("drift %+v, want 1 pp/100 d", tr.Drift)
 	}
 	for _, f := range []FlightPoint{tr.Flights[len(tr.Flights)/2], tr.Flights[len(tr.Flights)-1]} {
-		if got := tr.DriftAt(f.Time); math.Abs(got-f.DevPct) > 1e-6 {
-			t.Errorf("drift line at %v = %g, want the flight's %g", f.Time, got, f.DevPct)
+		if got := tr.DriftAt(f.At()); math.Abs(got-f.DevPct) > 1e-6 {
+			t.Errorf("drift line at %v = %g, want the flight's %g", f.At(), got, f.DevPct)
 		}
 	}
 	if r := tr.Flights[50].RollingPct; math.Abs(r-tr.Flights[50].DevPct) > 0.01 {

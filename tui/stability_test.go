@@ -73,21 +73,21 @@ func TestDemoRecordingsReplay(t *testing.T) {
 	found := 0
 	for _, a := range d.Fleet.Tails {
 		for _, f := range a.Flights {
-			if !strings.HasPrefix(f.Flight, "DDR") {
+			if !strings.HasPrefix(a.FlightName(f), "DDR") {
 				continue
 			}
 			found++
 			recs := d.FlightRecords(a.Tail, f)
 			if len(recs) < 3000 {
-				t.Fatalf("%s %s: %d records", a.Tail, f.Flight, len(recs))
+				t.Fatalf("%s %s: %d records", a.Tail, a.FlightName(f), len(recs))
 			}
 			s := newFlightScreen(NewStyles(DefaultTheme))
 			s.SetSize(100, 30)
-			s.Replay(d.Roster, d.Config, a.Tail, f.Flight, recs, 0, a.RecentPct)
+			s.Replay(d.Roster, d.Config, a.Tail, a.FlightName(f), recs, 0, a.RecentPct)
 			s.seek(len(recs) / 3)
 			if _, ok := lineWith(s.View(), "stable window"); !ok {
 				if _, ok := lineWith(s.View(), "not stable here"); !ok {
-					t.Errorf("%s %s: no stability line\n%s", a.Tail, f.Flight, s.View())
+					t.Errorf("%s %s: no stability line\n%s", a.Tail, a.FlightName(f), s.View())
 				}
 			}
 		}

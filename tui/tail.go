@@ -130,7 +130,7 @@ func (s *tailScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 			return s, nil
 		}
 		recs := s.data.FlightRecords(s.a.Tail, f)
-		return s, func() tea.Msg { return openFlightMsg{tail: s.a.Tail, flight: f.Flight, recs: recs} }
+		return s, func() tea.Msg { return openFlightMsg{tail: s.a.Tail, flight: s.a.FlightName(f), recs: recs} }
 	default:
 		return s, nil
 	}
@@ -206,11 +206,11 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	var pts, med [][2]float64
 	var ys []float64
 	for _, f := range a.Flights {
-		if f.Time.Before(start) || f.Time.After(end) {
+		if f.At().Before(start) || f.At().After(end) {
 			continue
 		}
-		pts = append(pts, [2]float64{x(f.Time), f.DevPct})
-		med = append(med, [2]float64{x(f.Time), f.RollingPct})
+		pts = append(pts, [2]float64{x(f.At()), f.DevPct})
+		med = append(med, [2]float64{x(f.At()), f.RollingPct})
 		ys = append(ys, f.DevPct)
 	}
 	// The engine series' rolling median shares the axis, so the range
@@ -218,8 +218,8 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	e, hasEngine := s.data.EngineTail(a.Tail)
 	var em [][2]float64
 	for _, f := range e.Flights {
-		if hasEngine && !f.Time.Before(start) && !f.Time.After(end) && !math.IsNaN(f.RollingPct) {
-			em = append(em, [2]float64{x(f.Time), f.RollingPct})
+		if hasEngine && !f.At().Before(start) && !f.At().After(end) && !math.IsNaN(f.RollingPct) {
+			em = append(em, [2]float64{x(f.At()), f.RollingPct})
 			ys = append(ys, f.RollingPct)
 		}
 	}
@@ -369,7 +369,7 @@ func (s *tailScreen) flightList(rows int) string {
 		if !ok {
 			break
 		}
-		line := fmt.Sprintf("%s  %-8s  %s %%  (%d snapshot%s)", f.Time.Format("2006-01-02 15:04"), clean(f.Flight), fmtSigned(f.DevPct, 2), f.N, plural(f.N))
+		line := fmt.Sprintf("%s  %-8s  %s %%  (%d snapshot%s)", f.At().Format("2006-01-02 15:04"), clean(s.a.FlightName(f)), fmtSigned(f.DevPct, 2), f.N, plural(int(f.N)))
 		if i == s.cursor {
 			line = s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(line, s.w-markW))
 		} else {

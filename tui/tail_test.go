@@ -46,14 +46,14 @@ func TestTailFlightsCursorVisible(t *testing.T) {
 			v := checkFrame(t, m, size[0], size[1])
 			f, _ := m.tail.flightAt(m.tail.cursor)
 			l, ok := lineWith(v, selMark)
-			if !ok || !strings.Contains(l, f.Time.Format("2006-01-02 15:04")) {
-				t.Fatalf("%v, %d downs: selected flight %s not marked on screen:\n%s", size, i+1, f.Time, v)
+			if !ok || !strings.Contains(l, f.At().Format("2006-01-02 15:04")) {
+				t.Fatalf("%v, %d downs: selected flight %s not marked on screen:\n%s", size, i+1, f.At(), v)
 			}
 		}
 		f, _ := m.tail.flightAt(m.tail.cursor)
 		press(m, "enter")
-		if m.flight.flight != f.Flight || !m.flight.recs[0].Time.Equal(f.Time) {
-			t.Errorf("%v: enter replayed %s at %s, the marked flight is %s at %s", size, m.flight.flight, m.flight.recs[0].Time, f.Flight, f.Time)
+		if m.flight.flight != m.tail.a.FlightName(f) || !m.flight.recs[0].Time.Equal(f.At()) {
+			t.Errorf("%v: enter replayed %s at %s, the marked flight is %s at %s", size, m.flight.flight, m.flight.recs[0].Time, m.tail.a.FlightName(f), f.At())
 		}
 	}
 }

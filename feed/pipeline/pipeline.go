@@ -144,12 +144,12 @@ func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 	if r.Records == nil && r.src != nil {
 		return r.sourceFlight(tail, f)
 	}
-	recs := r.Records[tail]
-	i := sort.Search(len(recs), func(i int) bool { return !recs[i].Time.Before(f.Time) })
+	recs, name := r.Records[tail], r.names.Name(f.Flight)
+	i := sort.Search(len(recs), func(i int) bool { return recs[i].Time.UnixNano() >= f.UnixNano })
 	var out []feed.Record
 	for ; i < len(recs); i++ {
 		rec := recs[i]
-		if rec.Flight != f.Flight || (len(out) > 0 && model.NewFlight(f.Flight, out[len(out)-1].Time, rec.Flight, rec.Time, r.Config.FlightGap)) {
+		if rec.Flight != name || (len(out) > 0 && model.NewFlight(name, out[len(out)-1].Time, rec.Flight, rec.Time, r.Config.FlightGap)) {
 			break
 		}
 		out = append(out, rec)
@@ -162,14 +162,9 @@ func (r *Result) FlightRecords(tail string, f model.FlightPoint) []feed.Record {
 // configured flight gap (i == j: none).
 func (r *Result) flightRange(tail string, f model.FlightPoint) (pts []model.TrendPoint, i, j int) {
 	pts = r.Points[tail]
-	id, ok := r.names.Lookup(f.Flight)
-	if !ok {
-		return pts, 0, 0
-	}
-	at := f.Time.UnixNano()
-	i = sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= at })
+	i = sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= f.UnixNano })
 	for j = i; j < len(pts); j++ {
-		if pts[j].Flight != id || (j > i && model.NextFlight(&pts[j-1], &pts[j], r.Config.FlightGap)) {
+		if pts[j].Flight != f.Flight || (j > i && model.NextFlight(&pts[j-1], &pts[j], r.Config.FlightGap)) {
 			break
 		}
 	}

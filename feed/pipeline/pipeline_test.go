@@ -80,7 +80,7 @@ func TestFromRecordsMatchesRun(t *testing.T) {
 	}
 	a := mem.Fleet.Tails[0]
 	recs := mem.FlightRecords(a.Tail, a.Flights[len(a.Flights)-1])
-	if len(recs) == 0 || recs[0].Flight != a.Flights[len(a.Flights)-1].Flight {
+	if len(recs) == 0 || recs[0].Flight != a.FlightName(a.Flights[len(a.Flights)-1]) {
 		t.Errorf("flight records %v", recs)
 	}
 	if pp := mem.PolarPoints(a.Tail, true); len(pp) == 0 || len(pp) > a.Points {
@@ -162,13 +162,13 @@ func TestFlightRecordsReadBack(t *testing.T) {
 		for _, f := range a.Flights {
 			want, got := mem.FlightRecords(a.Tail, f), file.FlightRecords(a.Tail, f)
 			if len(want) == 0 || len(got) != len(want) {
-				t.Fatalf("%s %s: %d records read back, %d kept", a.Tail, f.Flight, len(got), len(want))
+				t.Fatalf("%s %s: %d records read back, %d kept", a.Tail, a.FlightName(f), len(got), len(want))
 			}
 			for k := range got {
 				w := want[k]
 				w.File = got[k].File
 				if !reflect.DeepEqual(got[k], w) {
-					t.Fatalf("%s %s record %d: %+v, kept %+v", a.Tail, f.Flight, k, got[k], w)
+					t.Fatalf("%s %s record %d: %+v, kept %+v", a.Tail, a.FlightName(f), k, got[k], w)
 				}
 			}
 			flights++

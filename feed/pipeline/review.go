@@ -51,7 +51,7 @@ func (r *Result) EffectOf(tail string, e model.Event) EventEffect {
 		return out
 	}
 	for _, f := range a.Flights {
-		if !f.Time.Before(e.Time) {
+		if f.UnixNano >= e.Time.UnixNano() {
 			out.Flights++
 		}
 	}

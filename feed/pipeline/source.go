@@ -56,9 +56,9 @@ func (r *Result) sourceFlight(tail string, f model.FlightPoint) []feed.Record {
 	if err != nil {
 		return nil // the store went since it was read: nothing to show
 	}
-	out := recs[:0]
+	out, name := recs[:0], r.names.Name(f.Flight)
 	for _, rec := range recs {
-		if rec.Flight == f.Flight {
+		if rec.Flight == name {
 			out = append(out, rec)
 		}
 	}
