@@ -379,8 +379,8 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		usable = append(usable, p)
 	}
 	tr.ImplausibleMedianPct = median(implausible)
-	if !slices.IsSortedFunc(usable, byTime) { // the pipeline's are
-		slices.SortStableFunc(usable, byTime)
+	if !slices.IsSortedFunc(usable, ByTime) { // the pipeline's are
+		slices.SortStableFunc(usable, ByTime)
 	}
 	tr.Points = len(usable)
 	tr.Events = append([]Event(nil), events...)
@@ -426,8 +426,8 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 
 var errNoPoints = errors.New("no usable snapshots")
 
-// byTime orders points by time.
-func byTime(a, b TrendPoint) int { return cmp.Compare(a.UnixNano, b.UnixNano) }
+// ByTime orders points by time (for slices.SortStableFunc).
+func ByTime(a, b TrendPoint) int { return cmp.Compare(a.UnixNano, b.UnixNano) }
 
 // scratch is AnalyzeTrend's buffers, kept from one tail to the next
 // (scratches): the usable points and a column of values.

@@ -118,7 +118,7 @@ func safeName(s string) string {
 	return string(b)
 }
 
-func unix(tr model.TailTrend, i int) float64 { return float64(tr.Flights[i].UnixNano/1e9) }
+func unix(tr model.TailTrend, i int) float64 { return float64(tr.Flights[i].UnixNano / 1e9) }
 
 // tailPlot draws what the pipeline found for one tail: its flights, their
 // rolling median, the drift line, the steps and the events.

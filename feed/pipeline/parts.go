@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"math"
+	"slices"
 	"sync"
 	"time"
 
@@ -108,7 +109,10 @@ func (r *Result) merge(pp *partPoints) {
 		for k := range tp.pts {
 			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
-		r.Points[tp.tail] = append(r.Points[tp.tail], tp.pts...)
+		// a chunk of its own, just large enough: the tail's chunks are
+		// joined when it is assessed (join), so no slice grows by copies
+		// with room to spare
+		r.chunks[tp.tail] = append(r.chunks[tp.tail], slices.Clone(tp.pts))
 	}
 	if pp.first <= pp.last {
 		if first := time.Unix(0, pp.first).UTC(); r.First.IsZero() || first.Before(r.First) {
@@ -123,4 +127,24 @@ func (r *Result) merge(pp *partPoints) {
 	clear(pp.at)
 	clear(pp.flightAt)
 	parts.Put(pp)
+}
+
+// join returns a tail's points: those added one at a time (add) and its
+// chunks from merge, in the order they came, in one slice of their size.
+// The chunks are let go.
+func (r *Result) join(tail string) []model.TrendPoint {
+	cs := r.chunks[tail]
+	if len(cs) == 0 {
+		return r.Points[tail]
+	}
+	n := len(r.Points[tail])
+	for _, c := range cs {
+		n += len(c)
+	}
+	out := append(make([]model.TrendPoint, 0, n), r.Points[tail]...)
+	for k, c := range cs {
+		out = append(out, c...)
+		cs[k] = nil
+	}
+	return out
 }

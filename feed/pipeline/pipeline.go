@@ -80,7 +80,8 @@ type Result struct {
 	opt     feed.ReadOptions
 	src     Source // where FlightRecords reads a flight again, for a run on a Source
 
-	mu sync.Mutex // merge: the parts of files read side by side
+	mu     sync.Mutex                      // merge: the parts of files read side by side
+	chunks map[string][][]model.TrendPoint // by tail, the points of each part, till assess joins them
 }
 
 // refBits is where the file's index starts in a TrendPoint.Ref; below it
@@ -309,7 +310,7 @@ func newResult(in Input, files int) *Result {
 	} else {
 		typ = roster.Single()
 	}
-	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames()}
+	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames(), chunks: map[string][][]model.TrendPoint{}}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -374,9 +375,14 @@ func (r *Result) add(in Input, rec feed.Record) {
 // force at its last snapshot, for its level flag, and priced with that
 // entry's cruise hours.
 func (r *Result) assess(in Input) {
-	tails := make([]string, 0, len(r.Points))
+	tails := make([]string, 0, len(r.Points)+len(r.chunks))
 	for tail := range r.Points {
 		tails = append(tails, tail)
+	}
+	for tail := range r.chunks {
+		if _, ok := r.Points[tail]; !ok {
+			tails = append(tails, tail)
+		}
 	}
 	sort.Strings(tails)
 	trends := make([]model.TailTrend, len(tails))
@@ -393,8 +399,10 @@ func (r *Result) assess(in Input) {
 			defer wg.Done()
 			for i := range jobs {
 				tail := tails[i]
-				pts := r.Points[tail]
-				sort.SliceStable(pts, func(a, b int) bool { return pts[a].UnixNano < pts[b].UnixNano })
+				pts := r.join(tail)
+				if !slices.IsSortedFunc(pts, model.ByTime) { // a file in time order gives them sorted
+					slices.SortStableFunc(pts, model.ByTime)
+				}
 				pts, dups[i] = dedupe(pts, func(p *model.TrendPoint) int64 { return p.UnixNano })
 				pointsOf[i] = pts
 				if recs := r.Records[tail]; recs != nil {
@@ -429,6 +437,7 @@ func (r *Result) assess(in Input) {
 		}
 		r.Duplicates += dups[i]
 	}
+	r.chunks = nil
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
