@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"os"
-	"runtime/debug"
 	"sync/atomic"
 	"time"
 
@@ -68,7 +67,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		return err
 	}
 	defer in.close()
-	setDashMemoryLimit(in)
+	setMemoryLimit(in, dashBytesPerByte)
 	progress := &atomic.Int64{}
 	load := func() (*tui.Data, error) { return dashData(in, c, progress) }
 	return runDashboard(e, tui.New(e.ctx, nil, &tui.Loader{Total: feed.TotalSize(in.files), Progress: progress, Load: load}))
@@ -136,25 +135,4 @@ func reviewMarks(rv reviewJSON) *tui.ReviewMarks {
 		m.Steps[s.Tail]++
 	}
 	return m
-}
-
-// setDashMemoryLimit gives the dashboard's garbage collector a soft memory
-// limit in proportion to its input (64 MiB + 2.2 bytes per byte of CSV or
-// store, a little above the live heap the pipeline keeps: about 200 MB for
-// a million snapshots), so that the process stays near what it holds
-// rather than at twice that (the GC's default headroom). The limit is soft:
-// should the heap outgrow it, Go caps the collector's share of the CPU and
-// goes over, so a larger fleet is slower, never refused. GOMEMLIMIT, when
-// set, is the user's and is left alone.
-func setDashMemoryLimit(in *input) {
-	if os.Getenv("GOMEMLIMIT") != "" {
-		return
-	}
-	size := feed.TotalSize(in.files)
-	if in.store != nil {
-		if fi, err := os.Stat(in.store.Path()); err == nil {
-			size = fi.Size()
-		}
-	}
-	debug.SetMemoryLimit(64<<20 + size*22/10)
 }

@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"runtime/debug"
 	"sort"
 	"strconv"
 	"strings"
@@ -292,6 +293,9 @@ tail's work items in progress are shown.`,
 			fmt.Fprintln(rejOut, r)
 		}
 	}
+	pin.DropPoints = true // a report shows trends and flights, never points
+	setMemoryLimit(in, reportBytesPerByte)
+	defer debug.SetMemoryLimit(math.MaxInt64) // the next command of a test runs unlimited
 	r := pipeline.Run(pin)
 	if err := sourceFailed(r); err != nil {
 		return err

@@ -102,7 +102,7 @@ func BenchmarkImport1M(b *testing.B) {
 func BenchmarkDashboardLoad1M(b *testing.B) {
 	path := benchSnapshots(b)
 	in := &input{roster: model.SingleType(feed.DemoType()), files: []string{path}}
-	setDashMemoryLimit(in)
+	setMemoryLimit(in, dashBytesPerByte)
 	defer debug.SetMemoryLimit(math.MaxInt64)
 	var heap uint64
 	b.ResetTimer()

@@ -2,7 +2,6 @@ package pipeline
 
 import (
 	"math"
-	"slices"
 	"sync"
 	"time"
 
@@ -109,10 +108,7 @@ func (r *Result) merge(pp *partPoints) {
 		for k := range tp.pts {
 			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
-		// a chunk of its own, just large enough: the tail's chunks are
-		// joined when it is assessed (join), so no slice grows by copies
-		// with room to spare
-		r.chunks[tp.tail] = append(r.chunks[tp.tail], slices.Clone(tp.pts))
+		r.chunks[tp.tail] = addChunked(r.chunks[tp.tail], tp.pts)
 	}
 	if pp.first <= pp.last {
 		if first := time.Unix(0, pp.first).UTC(); r.First.IsZero() || first.Before(r.First) {
@@ -127,6 +123,28 @@ func (r *Result) merge(pp *partPoints) {
 	clear(pp.at)
 	clear(pp.flightAt)
 	parts.Put(pp)
+}
+
+// addChunked appends pts to a tail's chunks: the last chunk takes what it
+// has room for, and a new chunk, of an eighth of the tail's points so far
+// (64 at least), the rest. A tail's points then never move while it is
+// read, and the room to spare is at most an eighth of them (a slice grown
+// by append moves them at each growth and keeps up to a quarter spare);
+// join puts them in one slice when the tail is assessed.
+func addChunked(cs [][]model.TrendPoint, pts []model.TrendPoint) [][]model.TrendPoint {
+	for len(pts) > 0 {
+		if k := len(cs) - 1; k >= 0 && len(cs[k]) < cap(cs[k]) {
+			n := min(cap(cs[k])-len(cs[k]), len(pts))
+			cs[k], pts = append(cs[k], pts[:n]...), pts[n:]
+			continue
+		}
+		total := 0
+		for _, c := range cs {
+			total += len(c)
+		}
+		cs = append(cs, make([]model.TrendPoint, 0, max(64, total/8, len(pts))))
+	}
+	return cs
 }
 
 // join returns a tail's points: those added one at a time (add) and its

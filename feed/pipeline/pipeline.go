@@ -39,7 +39,11 @@ type Input struct {
 	KeepRecords bool
 	Progress    *atomic.Int64            // bytes read so far, for a progress bar (may be nil)
 	Reject      func(*feed.RowError)     // every rejected row, one at a time (may be nil)
-	Filter      func(r feed.Record) bool // keep only the records it accepts (nil: all)
+	Filter      func(r feed.Record) bool // keep only the records it accepts (nil: all); may be called concurrently
+	// DropPoints lets each tail's points go once its trends are computed:
+	// Result.Points is then empty (a report shows trends, not points, and
+	// its memory is then most of all the points at the end of the reading).
+	DropPoints bool
 }
 
 // Result is the pipeline's answer: the fleet assessed, and what it was made of.
@@ -331,7 +335,10 @@ func (r *Result) TypeOf(tail string) *model.Type {
 		return t
 	}
 	pts := r.Points[tail]
-	if len(pts) == 0 {
+	if len(pts) == 0 { // none, or let go (DropPoints): the type its trend was grouped with
+		if a, ok := r.Tail(tail); ok {
+			return r.Roster.Types[a.Type]
+		}
 		return nil
 	}
 	return r.TypeAt(tail, pts[len(pts)-1].At())
@@ -422,6 +429,9 @@ func (r *Result) assess(in Input) {
 					engine[i] = model.AnalyzeTrend(tail, ep, r.names, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
+				if in.DropPoints {
+					pointsOf[i] = nil
+				}
 			}
 		}()
 	}
@@ -431,7 +441,11 @@ func (r *Result) assess(in Input) {
 	close(jobs)
 	wg.Wait()
 	for i, tail := range tails {
-		r.Points[tail] = pointsOf[i]
+		if pointsOf[i] == nil {
+			delete(r.Points, tail)
+		} else {
+			r.Points[tail] = pointsOf[i]
+		}
 		if recordsOf[i] != nil {
 			r.Records[tail] = recordsOf[i]
 		}
