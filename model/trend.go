@@ -12,10 +12,11 @@ import (
 	"time"
 )
 
-// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 72
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 64
 // bytes and no pointer (its time in nanoseconds, its flight by id), so
-// that a million of them, a year of a large fleet, take 72 MB and are
-// never scanned by the garbage collector.
+// that a million of them, a year of a large fleet, take 64 MB and are
+// never scanned by the garbage collector. Where its row is, for a replay,
+// is the reader's to keep.
 type TrendPoint struct {
 	UnixNano         int64   // time, ns since 1970-01-01 UTC (At gives it as a time)
 	DevPct           float64 // drag deviation, % of baseline drag
@@ -24,10 +25,7 @@ type TrendPoint struct {
 	// when HasEngine. The engine series is made of the points that have
 	// one (EngineSeries), so it needs no copy of them.
 	EngineDevPct float64
-	// Ref says where the snapshot's row is, for reading it again (a
-	// replay): set by whoever read it; 0 when unknown.
-	Ref    int64
-	Flight FlightID // the flight's name in the points' FlightNames
+	Flight       FlightID // the flight's name in the points' FlightNames
 
 	// For the tail's own polar and its typical cruise (single precision is
 	// ample for both).

@@ -388,8 +388,8 @@ func TestTrendPointSize(t *testing.T) {
 	if typ := reflect.TypeFor[TrendPoint](); hasPointer(typ) {
 		t.Errorf("TrendPoint holds a pointer")
 	}
-	if n := unsafe.Sizeof(TrendPoint{}); n > 72 {
-		t.Errorf("TrendPoint is %d bytes, want at most 72", n)
+	if n := unsafe.Sizeof(TrendPoint{}); n > 64 {
+		t.Errorf("TrendPoint is %d bytes, want at most 64", n)
 	}
 }
 

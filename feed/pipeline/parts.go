@@ -24,7 +24,8 @@ type partPoints struct {
 type tailPoints struct {
 	tail       string
 	pts        []model.TrendPoint
-	lastFlight string // the last point's flight and its id: most rows
+	refs       []int64 // where each point's row is, when they are kept (Result.refsOf)
+	lastFlight string  // the last point's flight and its id: most rows
 	lastID     model.FlightID
 	roster     model.TailRoster
 }
@@ -55,10 +56,10 @@ func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoint
 			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(rec.Flight)
 		}
 		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
-		if ref >= 0 {
-			pt.Ref = ref<<refBits | (rec.Offset + 1)
-		}
 		tp.pts = append(tp.pts, pt)
+		if ref >= 0 {
+			tp.refs = append(tp.refs, ref<<refBits|(rec.Offset+1))
+		}
 		pp.first, pp.last = min(pp.first, pt.UnixNano), max(pp.last, pt.UnixNano)
 	}
 	return pp
@@ -74,7 +75,7 @@ func (pp *partPoints) tail(r *model.Roster, name string) *tailPoints {
 	pp.at[name] = i
 	if i < cap(pp.tails) {
 		pp.tails = pp.tails[:i+1]
-		pp.tails[i].tail, pp.tails[i].pts = name, pp.tails[i].pts[:0]
+		pp.tails[i].tail, pp.tails[i].pts, pp.tails[i].refs = name, pp.tails[i].pts[:0], pp.tails[i].refs[:0]
 	} else {
 		pp.tails = append(pp.tails, tailPoints{tail: name})
 	}
@@ -109,6 +110,9 @@ func (r *Result) merge(pp *partPoints) {
 			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
 		r.chunks[tp.tail] = addChunked(r.chunks[tp.tail], tp.pts)
+		if len(tp.refs) > 0 {
+			r.refChunks[tp.tail] = addChunked(r.refChunks[tp.tail], tp.refs)
+		}
 	}
 	if pp.first <= pp.last {
 		if first := time.Unix(0, pp.first).UTC(); r.First.IsZero() || first.Before(r.First) {
@@ -131,7 +135,7 @@ func (r *Result) merge(pp *partPoints) {
 // read, and the room to spare is at most an eighth of them (a slice grown
 // by append moves them at each growth and keeps up to a quarter spare);
 // join puts them in one slice when the tail is assessed.
-func addChunked(cs [][]model.TrendPoint, pts []model.TrendPoint) [][]model.TrendPoint {
+func addChunked[T any](cs [][]T, pts []T) [][]T {
 	for len(pts) > 0 {
 		if k := len(cs) - 1; k >= 0 && len(cs[k]) < cap(cs[k]) {
 			n := min(cap(cs[k])-len(cs[k]), len(pts))
@@ -142,24 +146,29 @@ func addChunked(cs [][]model.TrendPoint, pts []model.TrendPoint) [][]model.Trend
 		for _, c := range cs {
 			total += len(c)
 		}
-		cs = append(cs, make([]model.TrendPoint, 0, max(64, total/8, len(pts))))
+		cs = append(cs, make([]T, 0, max(64, total/8, len(pts))))
 	}
 	return cs
 }
 
-// join returns a tail's points: those added one at a time (add) and its
-// chunks from merge, in the order they came, in one slice of their size.
-// The chunks are let go.
-func (r *Result) join(tail string) []model.TrendPoint {
-	cs := r.chunks[tail]
+// join returns a tail's points and where their rows are (nil when not
+// kept): those added one at a time (add) and its chunks from merge, in the
+// order they came, each in one slice of its size. The chunks are let go.
+func (r *Result) join(tail string) ([]model.TrendPoint, []int64) {
+	return joinChunks(r.Points[tail], r.chunks[tail]), joinChunks(nil, r.refChunks[tail])
+}
+
+// joinChunks returns first and then the chunks cs in one slice, and lets
+// the chunks go; first itself when there are none.
+func joinChunks[T any](first []T, cs [][]T) []T {
 	if len(cs) == 0 {
-		return r.Points[tail]
+		return first
 	}
-	n := len(r.Points[tail])
+	n := len(first)
 	for _, c := range cs {
 		n += len(c)
 	}
-	out := append(make([]model.TrendPoint, 0, n), r.Points[tail]...)
+	out := append(make([]T, 0, n), first...)
 	for k, c := range cs {
 		out = append(out, c...)
 		cs[k] = nil

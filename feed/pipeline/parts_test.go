@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"slices"
 	"testing"
 
 	"dragdeck/model"
@@ -39,8 +40,11 @@ func TestAddChunked(t *testing.T) {
 			if total != int(next) || spare > max(64, total/8) {
 				t.Errorf("%d chunks hold %d points of %d, %d spare", len(cs), total, next, spare)
 			}
-			r := &Result{Points: map[string][]model.TrendPoint{}, chunks: map[string][][]model.TrendPoint{"T": cs}}
-			got := r.join("T")
+			r := &Result{Points: map[string][]model.TrendPoint{}, chunks: map[string][][]model.TrendPoint{"T": cs}, refChunks: map[string][][]int64{}}
+			got, refs := r.join("T")
+			if refs != nil {
+				t.Errorf("join gave refs none were kept for")
+			}
 			if len(got) != int(next) || cap(got) != len(got) {
 				t.Fatalf("join: %d points (cap %d), want %d", len(got), cap(got), next)
 			}
@@ -59,4 +63,49 @@ func repeat(n, times int) []int {
 		out[i] = n
 	}
 	return out
+}
+
+// inTime sorts points by time with their refs beside them, and drops a
+// repeated time (the first read stays), with or without refs.
+func TestInTime(t *testing.T) {
+	at := func(ns ...int64) []model.TrendPoint {
+		out := make([]model.TrendPoint, len(ns))
+		for i, n := range ns {
+			out[i].UnixNano = n
+			out[i].DevPct = float64(10 * n) // which point it is
+		}
+		return out
+	}
+	cases := []struct {
+		name     string
+		times    []int64
+		refs     []int64
+		want     []int64 // times after
+		wantRefs []int64
+		dropped  int
+	}{
+		{"sorted", []int64{1, 2, 3}, []int64{11, 12, 13}, []int64{1, 2, 3}, []int64{11, 12, 13}, 0},
+		{"unsorted", []int64{3, 1, 2}, []int64{13, 11, 12}, []int64{1, 2, 3}, []int64{11, 12, 13}, 0},
+		{"repeat kept first", []int64{2, 1, 2, 1}, []int64{21, 11, 22, 12}, []int64{1, 2}, []int64{11, 21}, 2},
+		{"no refs", []int64{5, 4, 4}, nil, []int64{4, 5}, nil, 1},
+		{"one", []int64{7}, []int64{70}, []int64{7}, []int64{70}, 0},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			pts, refs, dropped := inTime(at(c.times...), append([]int64(nil), c.refs...))
+			if c.refs == nil {
+				refs = nil
+			}
+			got := make([]int64, len(pts))
+			for i, p := range pts {
+				got[i] = p.UnixNano
+				if p.DevPct != float64(10*p.UnixNano) {
+					t.Errorf("point %d lost its values: %+v", i, p)
+				}
+			}
+			if !slices.Equal(got, c.want) || !slices.Equal(refs, c.wantRefs) || dropped != c.dropped {
+				t.Errorf("times %v refs %v dropped %d; want %v %v %d", got, refs, dropped, c.want, c.wantRefs, c.dropped)
+			}
+		})
+	}
 }

@@ -76,19 +76,21 @@ type Result struct {
 
 	tailIdx, engineIdx map[string]int     // place of each tail in Fleet.Tails and Engine.Tails
 	names              *model.FlightNames // the flights of Points
-	// refs: the points say where their rows are (TrendPoint.Ref: the
-	// file's index in paths, and the row's offset), for FlightRecords.
+	// refs: where each point's row is (refsOf, beside Points: the file's
+	// index in paths, and the row's offset), for FlightRecords.
 	refs    bool
+	refsOf  map[string][]int64
 	paths   []string
 	fileIdx map[string]int
 	opt     feed.ReadOptions
 	src     Source // where FlightRecords reads a flight again, for a run on a Source
 
-	mu     sync.Mutex                      // merge: the parts of files read side by side
-	chunks map[string][][]model.TrendPoint // by tail, the points of each part, till assess joins them
+	mu        sync.Mutex                      // merge: the parts of files read side by side
+	chunks    map[string][][]model.TrendPoint // by tail, the points of each part, till assess joins them
+	refChunks map[string][][]int64            // and where their rows are
 }
 
-// refBits is where the file's index starts in a TrendPoint.Ref; below it
+// refBits is where the file's index starts in a point's ref; below it
 // is the row's byte offset + 1 (files up to a terabyte).
 const refBits = 40
 
@@ -180,19 +182,21 @@ func (r *Result) flightRange(tail string, f model.FlightPoint) (pts []model.Tren
 // (the points say where they are), in time order.
 func (r *Result) readFlight(tail string, f model.FlightPoint) []feed.Record {
 	pts, i, j := r.flightRange(tail, f)
+	refs := r.refsOf[tail]
 	byFile := map[int][]int64{}
-	at := map[int64]int64{} // Ref → the point's time, to know the row again
+	at := map[int64]int64{} // ref → the point's time, to know the row again
 	var order []int
-	for _, p := range pts[i:j] {
-		if p.Ref == 0 {
+	for k := i; k < j && k < len(refs); k++ {
+		ref := refs[k]
+		if ref == 0 {
 			continue
 		}
-		fi := int(p.Ref >> refBits)
+		fi := int(ref >> refBits)
 		if _, ok := byFile[fi]; !ok {
 			order = append(order, fi)
 		}
-		byFile[fi] = append(byFile[fi], p.Ref&(1<<refBits-1)-1)
-		at[p.Ref] = p.UnixNano
+		byFile[fi] = append(byFile[fi], ref&(1<<refBits-1)-1)
+		at[ref] = pts[k].UnixNano
 	}
 	var out []feed.Record
 	slices.Sort(order)
@@ -314,7 +318,8 @@ func newResult(in Input, files int) *Result {
 	} else {
 		typ = roster.Single()
 	}
-	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames(), chunks: map[string][][]model.TrendPoint{}}
+	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames(),
+		chunks: map[string][][]model.TrendPoint{}, refChunks: map[string][][]int64{}, refsOf: map[string][]int64{}}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -356,11 +361,6 @@ func (r *Result) add(in Input, rec feed.Record) {
 		return // rejected by the reader's tail check
 	}
 	tp := r.Config.NewPoint(rec.Time, r.names.ID(rec.Flight), snap, p)
-	if r.refs {
-		if fi, known := r.fileIdx[rec.File]; known {
-			tp.Ref = int64(fi)<<refBits | (rec.Offset + 1)
-		}
-	}
 	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
@@ -398,6 +398,7 @@ func (r *Result) assess(in Input) {
 	// how many were dropped: put back into the maps after the workers.
 	pointsOf, hasEngine := make([][]model.TrendPoint, len(tails)), make([]bool, len(tails))
 	recordsOf, dups := make([][]feed.Record, len(tails)), make([]int, len(tails))
+	refsOf := make([][]int64, len(tails))
 	jobs := make(chan int)
 	var wg sync.WaitGroup
 	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
@@ -406,12 +407,9 @@ func (r *Result) assess(in Input) {
 			defer wg.Done()
 			for i := range jobs {
 				tail := tails[i]
-				pts := r.join(tail)
-				if !slices.IsSortedFunc(pts, model.ByTime) { // a file in time order gives them sorted
-					slices.SortStableFunc(pts, model.ByTime)
-				}
-				pts, dups[i] = dedupe(pts, func(p *model.TrendPoint) int64 { return p.UnixNano })
-				pointsOf[i] = pts
+				pts, refs := r.join(tail)
+				pts, refs, dups[i] = inTime(pts, refs)
+				pointsOf[i], refsOf[i] = pts, refs
 				if recs := r.Records[tail]; recs != nil {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
 					recordsOf[i], _ = dedupe(recs, func(r *feed.Record) int64 { return r.Time.UnixNano() })
@@ -430,7 +428,7 @@ func (r *Result) assess(in Input) {
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
 				if in.DropPoints {
-					pointsOf[i] = nil
+					pointsOf[i], refsOf[i] = nil, nil
 				}
 			}
 		}()
@@ -446,12 +444,15 @@ func (r *Result) assess(in Input) {
 		} else {
 			r.Points[tail] = pointsOf[i]
 		}
+		if refsOf[i] != nil {
+			r.refsOf[tail] = refsOf[i]
+		}
 		if recordsOf[i] != nil {
 			r.Records[tail] = recordsOf[i]
 		}
 		r.Duplicates += dups[i]
 	}
-	r.chunks = nil
+	r.chunks, r.refChunks = nil, nil
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
@@ -461,6 +462,48 @@ func (r *Result) assess(in Input) {
 	}
 	r.Engine = model.AssessFleet(withEngine, in.Config.EngineSeries())
 	r.tailIdx, r.engineIdx = index(r.Fleet.Tails), index(r.Engine.Tails)
+}
+
+// inTime sorts a tail's points by time, with where their rows are (refs,
+// nil when not kept), and drops the repeats of a time as dedupe does; it
+// returns them and how many were dropped. A file in time order gives them
+// sorted: they are then only checked.
+func inTime(pts []model.TrendPoint, refs []int64) ([]model.TrendPoint, []int64, int) {
+	if !slices.IsSortedFunc(pts, model.ByTime) {
+		if refs == nil {
+			slices.SortStableFunc(pts, model.ByTime)
+		} else { // the refs go with their points
+			type withRef struct {
+				p   model.TrendPoint
+				ref int64
+			}
+			both := make([]withRef, len(pts))
+			for i := range pts {
+				both[i] = withRef{pts[i], refs[i]}
+			}
+			slices.SortStableFunc(both, func(a, b withRef) int { return model.ByTime(a.p, b.p) })
+			for i, w := range both {
+				pts[i], refs[i] = w.p, w.ref
+			}
+		}
+	}
+	if len(pts) < 2 {
+		return pts, refs, 0
+	}
+	k := 1
+	for i := 1; i < len(pts); i++ {
+		if pts[i].UnixNano != pts[k-1].UnixNano {
+			pts[k] = pts[i]
+			if refs != nil {
+				refs[k] = refs[i]
+			}
+			k++
+		}
+	}
+	if refs != nil {
+		refs = refs[:k]
+	}
+	return pts[:k], refs, len(pts) - k
 }
 
 // dedupe drops from s, in time order, each element whose time equals the
