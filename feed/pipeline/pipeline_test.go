@@ -112,7 +112,8 @@ func benchFleetFile(b *testing.B) string {
 	return filepath.Join(dir, demo.SnapshotFile)
 }
 
-// BenchmarkRun reads, analyses and assesses about 280,000 snapshots.
+// BenchmarkRun reads, analyses and assesses about 280,000 snapshots
+// (rows/s): the load and the analysis, with the trends.
 func BenchmarkRun(b *testing.B) {
 	path := benchFleetFile(b)
 	fi, _ := os.Stat(path)
@@ -123,6 +124,23 @@ func BenchmarkRun(b *testing.B) {
 		rows += Run(input(path)).Stats.Read
 	}
 	b.ReportMetric(float64(rows)/b.Elapsed().Seconds(), "rows/s")
+}
+
+// BenchmarkAssess is the trend stage alone, on the points of about
+// 280,000 snapshots already read: every tail's airframe and engine trends,
+// the flags and the cost (points/s).
+func BenchmarkAssess(b *testing.B) {
+	in := input(benchFleetFile(b))
+	r := Run(in)
+	points := 0
+	for _, pts := range r.Points {
+		points += len(pts)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		r.assess(in) // the points are kept, sorted: each run does the same work
+	}
+	b.ReportMetric(float64(points*b.N)/b.Elapsed().Seconds(), "points/s")
 }
 
 // Tail finds every tail through its index, and still after the caller
