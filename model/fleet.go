@@ -4,7 +4,6 @@ import (
 	"math"
 	"sort"
 
-	"gonum.org/v1/gonum/stat"
 )
 
 // Flag names (DESIGN.md §4.9).
@@ -159,7 +158,7 @@ func nanLow(v float64) float64 {
 }
 
 // DeviationRange is the 2nd and 98th percentiles (linear interpolation,
-// gonum stat.Quantile) of every per-flight deviation of the fleet, %: a
+// as gonum's stat.Quantile with LinInterp) of every per-flight deviation of the fleet, %: a
 // common scale for comparing tails that a few outliers do not flatten. It
 // is −1…1 around the only value when all are equal, and 0…1 without
 // flights.
@@ -175,10 +174,27 @@ func (f Fleet) DeviationRange() (lo, hi float64) {
 	if len(v) == 0 {
 		return 0, 1
 	}
-	sort.Float64s(v)
-	lo, hi = stat.Quantile(0.02, stat.LinInterp, v, nil), stat.Quantile(0.98, stat.LinInterp, v, nil)
+	lo, hi = linInterpQuantile(v, 0.02), linInterpQuantile(v, 0.98)
 	if !(hi > lo) {
 		return lo - 1, lo + 1
 	}
 	return lo, hi
+}
+
+// linInterpQuantile is gonum's stat.Quantile(p, stat.LinInterp, x, nil) of
+// the sorted v, without sorting v (a fleet has hundreds of thousands of
+// flights): the i-th of n values sits at cumulative probability (i+1)/n,
+// and p·n falling between i and i+1 interpolates between the (i−1)-th and
+// the i-th smallest, i = ⌈p·n⌉ − 1, which selection finds (v is reordered;
+// no NaN).
+func linInterpQuantile(v []float64, p float64) float64 {
+	fidx := p * float64(len(v))
+	i := max(0, int(math.Ceil(fidx))-1)
+	i = min(i, len(v)-1)
+	selectK(v, i)
+	if i == 0 {
+		return v[0]
+	}
+	t := float64(i+1) - fidx
+	return t*maxOf(v[:i]) + (1-t)*v[i]
 }

@@ -2,7 +2,11 @@ package model
 
 import (
 	"math"
+	"math/rand/v2"
+	"sort"
 	"testing"
+
+	"gonum.org/v1/gonum/stat"
 )
 
 // The fleet's deviation scale is the 2nd–98th percentile of its flights.
@@ -31,5 +35,31 @@ func TestDeviationRange(t *testing.T) {
 				t.Errorf("range %g…%g, want %g…%g", lo, hi, tc.lo, tc.hi)
 			}
 		})
+	}
+}
+
+// linInterpQuantile, by selection, gives what gonum's stat.Quantile with
+// LinInterp gives on the sorted values, bit for bit, at any p and size,
+// with ties.
+func TestLinInterpQuantileIsGonums(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for _, n := range []int{1, 2, 3, 10, 49, 50, 51, 1000, 4099} {
+		for _, ties := range []bool{false, true} {
+			v := make([]float64, n)
+			for i := range v {
+				v[i] = rng.NormFloat64()
+				if ties {
+					v[i] = math.Round(v[i] * 2)
+				}
+			}
+			sorted := append([]float64(nil), v...)
+			sort.Float64s(sorted)
+			for _, p := range []float64{0, 0.001, 0.02, 0.25, 0.5, 0.98, 0.999, 1} {
+				want := stat.Quantile(p, stat.LinInterp, sorted, nil)
+				if got := linInterpQuantile(append([]float64(nil), v...), p); got != want {
+					t.Errorf("n %d ties %v p %g: %v, gonum %v", n, ties, p, got, want)
+				}
+			}
+		}
 	}
 }
