@@ -161,7 +161,10 @@ func parseShort(b []byte) (v float64, ok bool) {
 	if digits == 0 || i != len(b) || m > 1<<53 || exp < -22 {
 		return 0, false
 	}
-	v = float64(m) / pow10[-exp]
+	v = float64(m) // exact: m ≤ 2^53
+	if exp != 0 && m != 0 {
+		v /= pow10[-exp] // one correctly rounded division; none for a whole number or a zero
+	}
 	if neg {
 		v = -v
 	}
