@@ -3,7 +3,6 @@ package model
 import (
 	"math"
 	"sort"
-
 )
 
 // Flag names (DESIGN.md §4.9).
