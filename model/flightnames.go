@@ -8,7 +8,7 @@ type FlightID uint32
 
 // FlightNames numbers flight names in the order they are first met: the
 // table of a set of TrendPoints. ID adds and must not be called
-// concurrently; Name and Lookup may be, once the table is complete.
+// concurrently; Name may be, once the table is complete.
 type FlightNames struct {
 	names []string
 	ids   map[string]FlightID
@@ -30,12 +30,6 @@ func (f *FlightNames) ID(name string) FlightID {
 	return id
 }
 
-// Lookup returns the id of name; false when the table does not hold it.
-func (f *FlightNames) Lookup(name string) (FlightID, bool) {
-	id, ok := f.ids[name]
-	return id, ok
-}
-
 // Name returns the name of id ("" for an id the table did not give).
 func (f *FlightNames) Name(id FlightID) string {
 	if f == nil || int(id) >= len(f.names) {
@@ -43,6 +37,3 @@ func (f *FlightNames) Name(id FlightID) string {
 	}
 	return f.names[id]
 }
-
-// Len is the number of names.
-func (f *FlightNames) Len() int { return len(f.names) }

@@ -47,9 +47,9 @@ type TrendPoint struct {
 // At returns the point's time (UTC).
 func (p *TrendPoint) At() time.Time { return time.Unix(0, p.UnixNano).UTC() }
 
-// Nanos is t in ns since 1970-01-01 UTC, the time of a TrendPoint; the zero
+// nanos is t in ns since 1970-01-01 UTC, the time of a TrendPoint; the zero
 // time gives the smallest value, before every point.
-func Nanos(t time.Time) int64 {
+func nanos(t time.Time) int64 {
 	if t.IsZero() {
 		return math.MinInt64
 	}
@@ -112,7 +112,7 @@ func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s Snapshot, p Point) Tre
 // PolarPoints returns the polar-fit points of the usable points among pts
 // (in time order) taken at or after from (zero: all).
 func PolarPoints(pts []TrendPoint, c TrendConfig, from time.Time) []PolarPoint {
-	at := Nanos(from)
+	at := nanos(from)
 	i := sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= at }) // pts in time order
 	out := make([]PolarPoint, 0, len(pts)-i)
 	for _, p := range pts[i:] {
@@ -327,7 +327,7 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 			n++
 		}
 	}
-	out := make([]FlightPoint, 0, n) // a fleet's flights are a third of its snapshots: no room to spare
+	out := make([]FlightPoint, 0, n) // counted first: a fleet has hundreds of thousands, none to spare
 	var devs []float64
 	start := 0
 	flush := func(end int) {

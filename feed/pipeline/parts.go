@@ -38,7 +38,7 @@ var parts = sync.Pool{New: func() any {
 // analysePart analyses the records of one part, on the goroutine that
 // decoded them, as add does one record: the type in force for its tail at
 // its time, the fuel flow corrected by the fleet file's meter bias. ref is
-// the file's index for the points' Ref (−1: none kept).
+// the file's index, for where each point's row is (−1: not kept).
 func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoints {
 	pp := parts.Get().(*partPoints)
 	pp.first, pp.last = math.MaxInt64, math.MinInt64
@@ -106,6 +106,9 @@ func (r *Result) merge(pp *partPoints) {
 	}
 	for i := range pp.tails {
 		tp := &pp.tails[i]
+		if len(tp.pts) == 0 { // its rows were all left out: no tail of the result
+			continue
+		}
 		for k := range tp.pts {
 			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
