@@ -33,9 +33,10 @@ type Input struct {
 	Config model.TrendConfig
 
 	// KeepRecords makes the records of a flight available for replay
-	// (FlightRecords): read from files (Run), each point keeps where its
-	// row is and the flight's rows are read again on demand; given in
-	// memory (FromRecords), the records are kept.
+	// (FlightRecords): read from files (Run), where each point's row is
+	// is kept beside the points and the flight's rows are read again on
+	// demand; from a store, they are read from it again; given in memory
+	// (FromRecords), the records are kept.
 	KeepRecords bool
 	Progress    *atomic.Int64            // bytes read so far, for a progress bar (may be nil)
 	Reject      func(*feed.RowError)     // every rejected row, one at a time (may be nil)
