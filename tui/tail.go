@@ -206,11 +206,12 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	var pts, med [][2]float64
 	var ys []float64
 	for _, f := range a.Flights {
-		if f.At().Before(start) || f.At().After(end) {
+		t := f.At()
+		if t.Before(start) || t.After(end) {
 			continue
 		}
-		pts = append(pts, [2]float64{x(f.At()), f.DevPct})
-		med = append(med, [2]float64{x(f.At()), f.RollingPct})
+		pts = append(pts, [2]float64{x(t), f.DevPct})
+		med = append(med, [2]float64{x(t), f.RollingPct})
 		ys = append(ys, f.DevPct)
 	}
 	// The engine series' rolling median shares the axis, so the range
@@ -218,8 +219,8 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	e, hasEngine := s.data.EngineTail(a.Tail)
 	var em [][2]float64
 	for _, f := range e.Flights {
-		if hasEngine && !f.At().Before(start) && !f.At().After(end) && !math.IsNaN(f.RollingPct) {
-			em = append(em, [2]float64{x(f.At()), f.RollingPct})
+		if t := f.At(); hasEngine && !t.Before(start) && !t.After(end) && !math.IsNaN(f.RollingPct) {
+			em = append(em, [2]float64{x(t), f.RollingPct})
 			ys = append(ys, f.RollingPct)
 		}
 	}
