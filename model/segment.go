@@ -8,9 +8,10 @@ type lineSums struct {
 	x, y, xx, xy, yy []float64 // sums over [0, i)
 }
 
-func newLineSums(x, y []float64) *lineSums {
+// newLineSums makes the prefix sums of x, y, in buffers of a (nil: new).
+func newLineSums(x, y []float64, a *arena) *lineSums {
 	n := len(x)
-	s := &lineSums{make([]float64, n+1), make([]float64, n+1), make([]float64, n+1), make([]float64, n+1), make([]float64, n+1)}
+	s := &lineSums{a.floats(n + 1), a.floats(n + 1), a.floats(n + 1), a.floats(n + 1), a.floats(n + 1)}
 	for i := 0; i < n; i++ {
 		s.x[i+1] = s.x[i] + x[i]
 		s.y[i+1] = s.y[i] + y[i]
@@ -72,12 +73,18 @@ func (s *lineSums) cost(a, b int) float64 { return s.fit(a, b).SSE }
 // where a run must start (e.g. at events); they are boundaries whatever the
 // gain. It returns the start index of every run after the first, ascending.
 func SegmentLines(x, y []float64, minLen int, penalty float64, forced []int) []int {
-	n := len(x)
+	if len(x) == 0 {
+		return nil
+	}
+	return segmentLines(newLineSums(x, y, nil), len(x), minLen, penalty, forced)
+}
+
+// segmentLines is SegmentLines on the prefix sums s of a series of n points.
+func segmentLines(s *lineSums, n, minLen int, penalty float64, forced []int) []int {
 	if n == 0 {
 		return nil
 	}
 	minLen = max(minLen, 3)
-	s := newLineSums(x, y)
 	bounds := []int{0}
 	for _, f := range forced {
 		if f > bounds[len(bounds)-1] && f < n {
@@ -119,11 +126,14 @@ func SegmentLines(x, y []float64, minLen int, penalty float64, forced []int) []i
 // σ = 1.4826 · MAD(Δy) / √2 (the median absolute deviation scaled to a
 // normal standard deviation; Rousseeuw & Croux, J. Am. Stat. Assoc. 88,
 // 1993). Fewer than 3 points give NaN.
-func NoiseSigma(y []float64) float64 {
+func NoiseSigma(y []float64) float64 { return noiseSigma(y, nil) }
+
+// noiseSigma is NoiseSigma with its buffer from a.
+func noiseSigma(y []float64, a *arena) float64 {
 	if len(y) < 3 {
 		return math.NaN()
 	}
-	d := make([]float64, len(y)-1)
+	d := a.floats(len(y) - 1)
 	for i := range d {
 		d[i] = y[i+1] - y[i]
 	}

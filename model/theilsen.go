@@ -23,7 +23,10 @@ type Slope struct {
 // median of y − slope·x, which puts the line through the middle of the
 // points (Sen 1968; Conover, Practical Nonparametric Statistics, §5.5).
 // Ties in x are skipped. Fewer than 3 points give NaN.
-func TheilSen(x, y []float64, conf float64) Slope {
+func TheilSen(x, y []float64, conf float64) Slope { return theilSen(x, y, conf, nil) }
+
+// theilSen is TheilSen with its buffers from a.
+func theilSen(x, y []float64, conf float64, a *arena) Slope {
 	n := len(x)
 	s := Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN(), N: n}
 	if n < 3 || len(y) != n {
@@ -59,11 +62,11 @@ func TheilSen(x, y []float64, conf float64) Slope {
 	lo := max(int(math.Floor((float64(N)-c)/2))-1, 0) // 0-based
 	hi := min(int(math.Ceil((float64(N)+c)/2)), N-1)  // 0-based of the (…+1)-th
 	if finite && N > 4096 {
-		if w, ok := theilSenWindow(x, y, N, lo, hi); ok {
-			return w.withIntercept(x, y)
+		if w, ok := theilSenWindow(x, y, N, lo, hi, a); ok {
+			return w.withIntercept(x, y, a)
 		}
 	}
-	slopes := make([]float64, 0, N)
+	slopes := a.floats(N)[:0]
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			if dx := x[j] - x[i]; dx != 0 {
@@ -74,10 +77,10 @@ func TheilSen(x, y []float64, conf float64) Slope {
 	if hasNaN(slopes) {
 		sort.Float64s(slopes)
 		s.Slope, s.Lo, s.Hi = sortedMedian(slopes), slopes[lo], slopes[hi]
-		return s.withIntercept(x, y)
+		return s.withIntercept(x, y, a)
 	}
 	s.Slope, s.Lo, s.Hi = orderStats(slopes, lo, N/2, hi, N%2 == 0)
-	return s.withIntercept(x, y)
+	return s.withIntercept(x, y, a)
 }
 
 // orderStats returns the k-th smallest of v (with even, the mean of the
@@ -114,10 +117,10 @@ func orderStats(v []float64, lo, k, hi int, even bool) (med, l, h float64) {
 // the kept ones (their ranks shifted by the count below). The values are
 // exactly those of a full selection; false when the range missed a rank
 // (then the caller selects among all slopes).
-func theilSenWindow(x, y []float64, N, lo, hi int) (Slope, bool) {
+func theilSenWindow(x, y []float64, N, lo, hi int, ar *arena) (Slope, bool) {
 	n := len(x)
 	const m = 1024
-	sample := make([]float64, 0, m)
+	sample := ar.floats(m)[:0]
 	state := uint64(0x9E3779B97F4A7C15)
 	for tries := 0; len(sample) < m && tries < 4*m; tries++ {
 		state = state*6364136223846793005 + 1442695040888963407 // Knuth's MMIX LCG
@@ -147,7 +150,7 @@ func theilSenWindow(x, y []float64, N, lo, hi int) (Slope, bool) {
 	}
 	want := int(float64(N)*float64(rb-ra)/ms) + 64
 	below := 0
-	kept := make([]float64, 0, want)
+	kept := ar.floats(want)[:0] // grows by append beyond want, off the arena
 	for i := 0; i < n; i++ {
 		xi, yi := x[i], y[i]
 		for j := i + 1; j < n; j++ {
@@ -174,8 +177,8 @@ func theilSenWindow(x, y []float64, N, lo, hi int) (Slope, bool) {
 }
 
 // withIntercept sets Sen's intercept, the median of y − slope·x.
-func (s Slope) withIntercept(x, y []float64) Slope {
-	res := make([]float64, len(x))
+func (s Slope) withIntercept(x, y []float64, a *arena) Slope {
+	res := a.floats(len(x))
 	for i := range x {
 		res[i] = y[i] - s.Slope*x[i]
 	}

@@ -70,7 +70,11 @@ const (
 
 // EngineSeries returns the engine series of pts: the points with an engine
 // deviation, with it as their DevPct (a new slice; pts is not changed).
-func EngineSeries(pts []TrendPoint) []TrendPoint {
+func EngineSeries(pts []TrendPoint) []TrendPoint { return AppendEngineSeries(nil, pts) }
+
+// AppendEngineSeries is EngineSeries appending to dst (a buffer to reuse),
+// which it returns as it is when no point has an engine deviation.
+func AppendEngineSeries(dst, pts []TrendPoint) []TrendPoint {
 	n := 0
 	for i := range pts {
 		if pts[i].HasEngine {
@@ -78,16 +82,16 @@ func EngineSeries(pts []TrendPoint) []TrendPoint {
 		}
 	}
 	if n == 0 {
-		return nil
+		return dst
 	}
-	out := make([]TrendPoint, 0, n)
+	dst = slices.Grow(dst, n)
 	for _, p := range pts {
 		if p.HasEngine {
 			p.DevPct = p.EngineDevPct
-			out = append(out, p)
+			dst = append(dst, p)
 		}
 	}
-	return out
+	return dst
 }
 
 // NewPoint makes the trend's point of an analysed snapshot s taken at time
@@ -397,16 +401,18 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		tr.Typical = typicalCruise(usable, ff)
 	}
 	tr.Flights = Flights(usable, c.FlightGap)
-	devs := make([]float64, len(tr.Flights))
+	ar := &sc.ar
+	ar.reset()
+	devs := ar.floats(len(tr.Flights))
 	for i, f := range tr.Flights {
 		devs[i] = f.DevPct
 	}
-	for i, r := range RollingMedian(devs, c.RollingHalf) {
+	for i, r := range rollingMedian(devs, c.RollingHalf, ar) {
 		tr.Flights[i].RollingPct = r
 	}
 
 	recentFrom := tr.Last.Add(-time.Duration(c.RecentDays * 24 * float64(time.Hour)))
-	var recent []float64
+	recent := ar.floats(len(tr.Flights))[:0]
 	for _, f := range tr.Flights {
 		if f.UnixNano >= recentFrom.UnixNano() {
 			recent = append(recent, f.DevPct)
@@ -414,8 +420,8 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 	}
 	tr.RecentPct = median(recent)
 
-	tr.findSteps(c)
-	tr.findDrift(c)
+	tr.findSteps(c, ar)
+	tr.findDrift(c, ar)
 	if !c.SkipCruise {
 		tr.fitPolar(usable, c)
 	}
@@ -428,10 +434,12 @@ var errNoPoints = errors.New("no usable snapshots")
 func ByTime(a, b TrendPoint) int { return cmp.Compare(a.UnixNano, b.UnixNano) }
 
 // scratch is AnalyzeTrend's buffers, kept from one tail to the next
-// (scratches): the usable points and a column of values.
+// (scratches): the usable points, a column of values and the arena of
+// the trend's other columns.
 type scratch struct {
 	usable []TrendPoint
 	col    []float64
+	ar     arena
 }
 
 var scratches = sync.Pool{New: func() any { return new(scratch) }}
@@ -474,16 +482,18 @@ func (tr *TailTrend) fitPolar(usable []TrendPoint, c TrendConfig) {
 }
 
 // findSteps segments the per-flight series and keeps significant jumps.
-func (tr *TailTrend) findSteps(c TrendConfig) {
+// Its columns are buffers of ar.
+func (tr *TailTrend) findSteps(c TrendConfig, ar *arena) {
 	n := len(tr.Flights)
-	x, y := make([]float64, n), make([]float64, n)
+	x, y := ar.floats(n), ar.floats(n)
 	for i, f := range tr.Flights {
 		x[i], y[i] = daysNs(f.UnixNano, tr.First), f.DevPct
 	}
-	sigma := NoiseSigma(y)
+	sigma := noiseSigma(y, ar)
+	sums := newLineSums(x, y, ar)
 	if n < 2*max(c.MinSegment, 3) || math.IsNaN(sigma) || sigma == 0 {
 		if n >= 2 {
-			tr.Segments = []Line{newLineSums(x, y).fit(0, n)}
+			tr.Segments = []Line{sums.fit(0, n)}
 		}
 		return
 	}
@@ -495,8 +505,7 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 		}
 	}
 	s2 := sigma * sigma
-	bounds := SegmentLines(x, y, c.MinSegment, c.PenaltyFactor*s2*math.Log(float64(n)), forced)
-	sums := newLineSums(x, y)
+	bounds := segmentLines(sums, n, c.MinSegment, c.PenaltyFactor*s2*math.Log(float64(n)), forced)
 	edges := append(append([]int{0}, bounds...), n)
 	for i := 0; i+1 < len(edges); i++ {
 		tr.Segments = append(tr.Segments, sums.fit(edges[i], edges[i+1]))
@@ -536,8 +545,8 @@ func (tr *TailTrend) findSteps(c TrendConfig) {
 }
 
 // findDrift fits the Theil–Sen slope of the daily medians over the trailing
-// DriftDays, starting after the last step.
-func (tr *TailTrend) findDrift(c TrendConfig) {
+// DriftDays, starting after the last step. Its columns are buffers of ar.
+func (tr *TailTrend) findDrift(c TrendConfig, ar *arena) {
 	from := tr.Last.Add(-time.Duration(c.DriftDays * 24 * float64(time.Hour)))
 	if from.Before(tr.First) {
 		from = tr.First
@@ -550,7 +559,9 @@ func (tr *TailTrend) findDrift(c TrendConfig) {
 	}
 	// Each day is one point at the median time of its flights, so that
 	// the line's intercept is at the right time of day.
-	var x, y, day, dayX []float64
+	n := len(tr.Flights)
+	x, y := ar.floats(n)[:0], ar.floats(n)[:0]
+	day, dayX := ar.floats(min(n, 64))[:0], ar.floats(min(n, 64))[:0] // one day's flights
 	cur := math.Inf(-1)
 	flushDay := func() {
 		if len(day) > 0 {
@@ -574,7 +585,7 @@ func (tr *TailTrend) findDrift(c TrendConfig) {
 	if len(x) < 10 {
 		return
 	}
-	s := TheilSen(x, y, 0.95)
+	s := theilSen(x, y, 0.95, ar)
 	tr.Drift = Slope{Slope: 100 * s.Slope, Lo: 100 * s.Lo, Hi: 100 * s.Hi, Intercept: s.Intercept, N: s.N}
 	tr.DriftFrom, tr.DriftTo = from, tr.Last
 }

@@ -1,6 +1,7 @@
 package model
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"reflect"
@@ -439,4 +440,88 @@ func hasPointer(typ reflect.Type) bool {
 		return false
 	}
 	return true
+}
+
+// The trend's buffers are reused from one tail to the next (the arena of a
+// pooled scratch): a tail analysed after a larger and a smaller one has
+// the trend it has on its own, with the public functions' (fresh buffers)
+// slope and noise.
+func TestAnalyzeTrendReusesBuffers(t *testing.T) {
+	c := DefaultTrendConfig()
+	tails := []struct {
+		name string
+		pts  []TrendPoint
+	}{
+		{"step", series(300, 0.6, 2, func(d float64) float64 { return 3 * math.Floor(d/150) })},
+		{"long drift", series(900, 0.6, 3, func(d float64) float64 { return 0.012 * d })},
+		{"short", series(70, 0.4, 5, func(float64) float64 { return 1 })},
+	}
+	alone := make([]TailTrend, len(tails))
+	for i, tc := range tails {
+		alone[i] = AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), testFlights, nil, c)
+	}
+	for round := 0; round < 3; round++ {
+		for i, tc := range tails {
+			got := AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), testFlights, nil, c)
+			if g, w := fmt.Sprintf("%+v", got), fmt.Sprintf("%+v", alone[i]); g != w { // NaN-safe, unlike reflect.DeepEqual
+				t.Errorf("round %d, %s: trend differs from the tail's alone:\n%s\n%s", round, tc.name, g, w)
+			}
+		}
+	}
+	// The drift is TheilSen's on the daily medians of its window.
+	tr := alone[1]
+	var x, y, day, dayX []float64
+	cur := math.Inf(-1)
+	for _, f := range tr.Flights {
+		if f.UnixNano < tr.DriftFrom.UnixNano() {
+			continue
+		}
+		fx := daysNs(f.UnixNano, tr.First)
+		if d := math.Floor(fx); d != cur {
+			if len(day) > 0 {
+				x, y = append(x, Median(dayX)), append(y, Median(day))
+			}
+			day, dayX, cur = day[:0], dayX[:0], d
+		}
+		day, dayX = append(day, f.DevPct), append(dayX, fx)
+	}
+	x, y = append(x, Median(dayX)), append(y, Median(day))
+	if s := TheilSen(x, y, 0.95); 100*s.Slope != tr.Drift.Slope || 100*s.Lo != tr.Drift.Lo || 100*s.Hi != tr.Drift.Hi {
+		t.Errorf("drift %+v, TheilSen of its daily medians %+v", tr.Drift, s)
+	}
+}
+
+// EngineSeries keeps the points with an engine deviation, as their DevPct;
+// AppendEngineSeries appends them to a buffer, left as it is when none has.
+func TestEngineSeries(t *testing.T) {
+	withEngine := func(dev, eng float64, has bool) TrendPoint {
+		return TrendPoint{DevPct: dev, EngineDevPct: eng, HasEngine: has}
+	}
+	tests := []struct {
+		name string
+		pts  []TrendPoint
+		want []float64 // DevPct of the engine series
+	}{
+		{"none has", []TrendPoint{withEngine(1, 0, false), withEngine(2, 0, false)}, nil},
+		{"some have", []TrendPoint{withEngine(1, 5, true), withEngine(2, 0, false), withEngine(3, 7, true)}, []float64{5, 7}},
+		{"empty", nil, nil},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			got := EngineSeries(tt.pts)
+			if len(tt.want) == 0 && got != nil {
+				t.Errorf("EngineSeries = %v, want nil", got)
+			}
+			dst := []TrendPoint{withEngine(-1, -1, true)}
+			app := AppendEngineSeries(dst, tt.pts)
+			if app[0].DevPct != -1 || len(app) != 1+len(tt.want) {
+				t.Fatalf("AppendEngineSeries = %+v: the buffer's point lost or wrong length", app)
+			}
+			for i, w := range tt.want {
+				if got[i].DevPct != w || app[1+i].DevPct != w {
+					t.Errorf("point %d: %g and %g, want %g", i, got[i].DevPct, app[1+i].DevPct, w)
+				}
+			}
+		})
+	}
 }

@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"math"
+	"slices"
 	"sync"
 	"time"
 
@@ -171,10 +172,19 @@ func joinChunks[T any](first []T, cs [][]T) []T {
 	for _, c := range cs {
 		n += len(c)
 	}
-	out := append(make([]T, 0, n), first...)
+	return joinInto(make([]T, 0, n), first, cs)
+}
+
+// joinInto is joinChunks appending to dst (a buffer to reuse).
+func joinInto[T any](dst, first []T, cs [][]T) []T {
+	n := len(first)
+	for _, c := range cs {
+		n += len(c)
+	}
+	dst = append(slices.Grow(dst, n), first...)
 	for k, c := range cs {
-		out = append(out, c...)
+		dst = append(dst, c...)
 		cs[k] = nil
 	}
-	return out
+	return dst
 }

@@ -406,9 +406,20 @@ func (r *Result) assess(in Input) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			// With DropPoints, a tail's points and its engine series are
+			// put in buffers of the worker's, reused from one tail to the
+			// next: no fresh memory for them.
+			var buf, ebuf []model.TrendPoint
 			for i := range jobs {
 				tail := tails[i]
-				pts, refs := r.join(tail)
+				var pts []model.TrendPoint
+				var refs []int64
+				if in.DropPoints {
+					buf = joinInto(buf[:0], r.Points[tail], r.chunks[tail])
+					pts = buf
+				} else {
+					pts, refs = r.join(tail)
+				}
 				pts, refs, dups[i] = inTime(pts, refs)
 				pointsOf[i], refsOf[i] = pts, refs
 				if recs := r.Records[tail]; recs != nil {
@@ -423,7 +434,14 @@ func (r *Result) assess(in Input) {
 				}
 				trends[i] = model.AnalyzeTrend(tail, pts, r.names, af, in.Config)
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
-				if ep := model.EngineSeries(pts); len(ep) > 0 {
+				var ep []model.TrendPoint
+				if in.DropPoints {
+					ebuf = model.AppendEngineSeries(ebuf[:0], pts)
+					ep = ebuf
+				} else {
+					ep = model.EngineSeries(pts)
+				}
+				if len(ep) > 0 {
 					hasEngine[i] = true
 					engine[i] = model.AnalyzeTrend(tail, ep, r.names, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
