@@ -44,6 +44,9 @@ type Input struct {
 	// DropPoints lets each tail's points go once its trends are computed:
 	// Result.Points is then empty (a report shows trends, not points, and
 	// its memory is then most of all the points at the end of the reading).
+	// What only the points' screens show is then not computed either: the
+	// typical cruise and the tail's own polar (TailTrend.Typical and
+	// Polar stay unset, as for an engine series).
 	DropPoints bool
 }
 
@@ -432,7 +435,9 @@ func (r *Result) assess(in Input) {
 				if len(pts) > 0 {
 					last, _, _ = r.Roster.At(tail, pts[len(pts)-1].At())
 				}
-				trends[i] = model.AnalyzeTrend(tail, pts, r.names, af, in.Config)
+				cfg := in.Config
+				cfg.SkipCruise = cfg.SkipCruise || in.DropPoints
+				trends[i] = model.AnalyzeTrend(tail, pts, r.names, af, cfg)
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
 				var ep []model.TrendPoint
 				if in.DropPoints {
