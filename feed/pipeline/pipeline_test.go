@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -239,4 +240,63 @@ func memAndFile(t *testing.T, cfg demo.Config, keep bool) (mem, file *Result) {
 	fin := input(filepath.Join(dir, demo.SnapshotFile))
 	fin.KeepRecords, fin.Roster = keep, d.Roster
 	return FromRecords(d.Records, d.Stats, in), Run(fin)
+}
+
+// With DropPoints the points go once the trends are made, in the workers'
+// buffers, and the typical cruise and own polar are not computed; the
+// trends, flags, levels and engine series are those of a run that keeps
+// the points, on a file read by parts (over 4 MB) and on a small one.
+func TestRunDropPoints(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		cfg  demo.Config
+	}{
+		{"small file, one decoder", demo.Config{Tails: 5, Days: 90, Seed: 21}},
+		{"file read by parts", demo.Config{Tails: 40, Days: 400, Seed: 22}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			dir := t.TempDir()
+			if _, err := demo.Write(dir, tc.cfg); err != nil {
+				t.Fatal(err)
+			}
+			path := filepath.Join(dir, demo.SnapshotFile)
+			keep := Run(input(path))
+			in := input(path)
+			in.DropPoints = true
+			drop := Run(in)
+			if len(drop.Points) != 0 {
+				t.Errorf("%d tails' points kept", len(drop.Points))
+			}
+			if len(keep.Fleet.Tails) != len(drop.Fleet.Tails) || len(keep.Engine.Tails) != len(drop.Engine.Tails) || len(keep.Fleet.Tails) != tc.cfg.Tails {
+				t.Fatalf("tails %d/%d, engine %d/%d", len(keep.Fleet.Tails), len(drop.Fleet.Tails), len(keep.Engine.Tails), len(drop.Engine.Tails))
+			}
+			for i, k := range keep.Fleet.Tails {
+				d := drop.Fleet.Tails[i]
+				if !math.IsNaN(d.Typical.Weight) || d.PolarErr == nil {
+					t.Errorf("%s: typical cruise %+v, polar error %v: computed", d.Tail, d.Typical, d.PolarErr)
+				}
+				if math.IsNaN(k.Typical.Weight) && k.Points > 0 {
+					t.Errorf("%s: no typical cruise when the points are kept", k.Tail)
+				}
+				// Apart from what is not computed, the same assessment.
+				d.Typical, d.Polar, d.PolarErr, d.PolarFrom = k.Typical, k.Polar, k.PolarErr, k.PolarFrom
+				d.Names = k.Names // each result's own table of the same names
+				if g, w := fmt.Sprintf("%+v", d), fmt.Sprintf("%+v", k); g != w {
+					t.Errorf("tail %d differs:\n%s\n%s", i, g, w)
+				}
+			}
+			for i, k := range keep.Engine.Tails {
+				d := drop.Engine.Tails[i]
+				d.Names = k.Names
+				if g, w := fmt.Sprintf("%+v", d), fmt.Sprintf("%+v", k); g != w {
+					t.Errorf("engine tail %d differs:\n%s\n%s", i, g, w)
+				}
+			}
+			dlo, dhi := drop.Fleet.DeviationRange()
+			klo, khi := keep.Fleet.DeviationRange()
+			if dlo != klo || dhi != khi || drop.Fleet.Flagged != keep.Fleet.Flagged {
+				t.Errorf("fleet range [%g, %g], %d flagged; want [%g, %g], %d", dlo, dhi, drop.Fleet.Flagged, klo, khi, keep.Fleet.Flagged)
+			}
+		})
+	}
 }
