@@ -12,11 +12,13 @@ import (
 	"time"
 )
 
-// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 64
+// TrendPoint is one analysed snapshot of a tail, as the trend uses it: 40
 // bytes and no pointer (its time in nanoseconds, its flight by id), so
-// that a million of them, a year of a large fleet, take 64 MB and are
-// never scanned by the garbage collector. Where its row is, for a replay,
-// is the reader's to keep.
+// that a million of them, a year of a large fleet, take 40 MB and are
+// never scanned by the garbage collector. What only the tail's own polar
+// and typical cruise need is its PointDetail, kept beside it (same index)
+// where a screen shows them. Where its row is, for a replay, is the
+// reader's to keep.
 type TrendPoint struct {
 	UnixNano         int64   // time, ns since 1970-01-01 UTC (At gives it as a time)
 	DevPct           float64 // drag deviation, % of baseline drag
@@ -27,21 +29,30 @@ type TrendPoint struct {
 	EngineDevPct float64
 	Flight       FlightID // the flight's name in the points' FlightNames
 
-	// For the tail's own polar and its typical cruise (single precision is
-	// ample for both).
-	CL         float32 // lift coefficient
-	CDLessWave float32 // CD_measured − ΔCD_wave
-	Weight     float32 // kg
-	Altitude   float32 // m, pressure altitude
-	Mach       float32
-	ISADev     float32 // K
-
 	OutsideTable bool // N1k or Mach outside the type's thrust table
 	HasEngine    bool // thrust from fan speed: EngineDevPct holds the engine deviation
 	// Manoeuvre says which limit of the configuration that made the point
 	// (TrendConfig.NewPoint) its bank, vertical speed or acceleration
 	// passes; ManoeuvreNone when none. The values themselves are not kept.
 	Manoeuvre Manoeuvre
+}
+
+// PointDetail is what a point adds for its tail's own polar and typical
+// cruise: 24 bytes (single precision is ample for both), kept beside the
+// points by the outputs that show them.
+type PointDetail struct {
+	CL         float32 // lift coefficient
+	CDLessWave float32 // CD_measured − ΔCD_wave
+	Weight     float32 // kg
+	Altitude   float32 // m, pressure altitude
+	Mach       float32
+	ISADev     float32 // K
+}
+
+// NewDetail makes the detail of an analysed snapshot s.
+func NewDetail(s Snapshot, p Point) PointDetail {
+	return PointDetail{CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
+		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
 }
 
 // At returns the point's time (UTC).
@@ -108,20 +119,22 @@ func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s Snapshot, p Point) Tre
 		m = ManoeuvreAccel
 	}
 	return TrendPoint{UnixNano: t.UnixNano(), Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
-		OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m,
-		CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
-		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
+		OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m}
 }
 
 // PolarPoints returns the polar-fit points of the usable points among pts
-// (in time order) taken at or after from (zero: all).
-func PolarPoints(pts []TrendPoint, c TrendConfig, from time.Time) []PolarPoint {
+// (in time order, det their details) taken at or after from (zero: all);
+// none without details.
+func PolarPoints(pts []TrendPoint, det []PointDetail, c TrendConfig, from time.Time) []PolarPoint {
+	if len(det) != len(pts) {
+		return nil
+	}
 	at := nanos(from)
 	i := sort.Search(len(pts), func(i int) bool { return pts[i].UnixNano >= at }) // pts in time order
 	out := make([]PolarPoint, 0, len(pts)-i)
-	for _, p := range pts[i:] {
-		if c.Usable(p) == "" && p.UnixNano >= at {
-			out = append(out, PolarPoint{CL: float64(p.CL), CDMeasured: float64(p.CDLessWave)})
+	for k := i; k < len(pts); k++ {
+		if c.Usable(pts[k]) == "" && pts[k].UnixNano >= at {
+			out = append(out, PolarPoint{CL: float64(det[k].CL), CDMeasured: float64(det[k].CDLessWave)})
 		}
 	}
 	return out
@@ -179,11 +192,6 @@ type TrendConfig struct {
 
 	CruiseHours float64 // per year, for the cost (2,500 h)
 	FuelPrice   float64 // per kg of fuel, for the cost (0: no money figure)
-
-	// SkipCruise leaves the typical cruise and the tail's own polar out of
-	// the trend (Typical stays NaN, PolarErr says why): the engine series,
-	// whose snapshots are the airframe's, has no use for them again.
-	SkipCruise bool
 }
 
 // DefaultTrendConfig returns the defaults of DESIGN.md §4.8–§4.10.
@@ -200,10 +208,9 @@ func DefaultTrendConfig() TrendConfig {
 
 // EngineSeries returns c with the engine series' flag thresholds in place
 // of the airframe's: the configuration under which an engine series is
-// trended and flagged (without a typical cruise and polar: SkipCruise).
+// trended and flagged.
 func (c TrendConfig) EngineSeries() TrendConfig {
 	c.LevelPP, c.GrowthPP, c.StepPP = c.EngineLevelPP, c.EngineGrowthPP, c.EngineStepPP
-	c.SkipCruise = true
 	return c
 }
 
@@ -359,18 +366,24 @@ func Flights(pts []TrendPoint, gapHours float64) []FlightPoint {
 // (runs also start at events), kept when the jump between the two fitted
 // lines is significant; and the drift as the Theil–Sen slope of the daily
 // medians over the trailing DriftDays after the last step. names gives the
-// names of the points' flights.
-func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Event, c TrendConfig) TailTrend {
+// names of the points' flights. det, when not nil, holds the points'
+// details (same index), for the typical cruise and the tail's own polar;
+// without them Typical stays NaN and PolarErr says why (an engine series,
+// whose snapshots are the airframe's; a report, which shows neither).
+func AnalyzeTrend(tail string, pts []TrendPoint, det []PointDetail, names *FlightNames, events []Event, c TrendConfig) TailTrend {
 	tr := TailTrend{Tail: tail, Names: names, Excluded: map[string]int{}, RecentPct: math.NaN(),
 		Drift:            Slope{Slope: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Intercept: math.NaN()},
 		FuelFlowExpected: math.NaN(), ImplausibleMedianPct: math.NaN(),
 		Typical: Cruise{math.NaN(), math.NaN(), math.NaN(), math.NaN()}, PolarErr: errNoPoints}
 	sc := scratches.Get().(*scratch)
 	defer scratches.Put(sc)
-	usable := sc.usable[:0]
-	defer func() { sc.usable = usable[:0] }()
+	if len(det) != len(pts) {
+		det = nil
+	}
+	usable, udet := sc.usable[:0], sc.det[:0]
+	defer func() { sc.usable, sc.det = usable[:0], udet[:0] }()
 	var implausible []float64
-	for _, p := range pts {
+	for i, p := range pts {
 		if why := c.Usable(p); why != "" {
 			tr.Excluded[why]++
 			if why == ExcludeImplausible && !math.IsNaN(p.DevPct) {
@@ -379,10 +392,16 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 			continue
 		}
 		usable = append(usable, p)
+		if det != nil {
+			udet = append(udet, det[i])
+		}
 	}
 	tr.ImplausibleMedianPct = median(implausible)
-	if !slices.IsSortedFunc(usable, ByTime) { // the pipeline's are
-		slices.SortStableFunc(usable, ByTime)
+	if order := TimeOrder(usable); order != nil { // the pipeline's are in order
+		Reorder(usable, order)
+		if det != nil {
+			Reorder(udet, order)
+		}
 	}
 	tr.Points = len(usable)
 	tr.Events = append([]Event(nil), events...)
@@ -397,8 +416,8 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 		ff[i] = usable[i].FuelFlowExpected
 	}
 	tr.FuelFlowExpected = median(ff)
-	if !c.SkipCruise {
-		tr.Typical = typicalCruise(usable, ff)
+	if det != nil {
+		tr.Typical = typicalCruise(udet, ff)
 	}
 	tr.Flights = Flights(usable, c.FlightGap)
 	ar := &sc.ar
@@ -422,8 +441,8 @@ func AnalyzeTrend(tail string, pts []TrendPoint, names *FlightNames, events []Ev
 
 	tr.findSteps(c, ar)
 	tr.findDrift(c, ar)
-	if !c.SkipCruise {
-		tr.fitPolar(usable, c)
+	if det != nil {
+		tr.fitPolar(usable, udet, c)
 	}
 	return tr
 }
@@ -434,19 +453,21 @@ var errNoPoints = errors.New("no usable snapshots")
 func ByTime(a, b TrendPoint) int { return cmp.Compare(a.UnixNano, b.UnixNano) }
 
 // scratch is AnalyzeTrend's buffers, kept from one tail to the next
-// (scratches): the usable points, a column of values and the arena of
-// the trend's other columns.
+// (scratches): the usable points and their details, a column of values
+// and the arena of the trend's other columns.
 type scratch struct {
 	usable []TrendPoint
+	det    []PointDetail
 	col    []float64
 	ar     arena
 }
 
 var scratches = sync.Pool{New: func() any { return new(scratch) }}
 
-// typicalCruise is the median weight, level, Mach and ISA deviation of pts.
-// The buffer v (len(pts)) serves the four columns (each median reorders it).
-func typicalCruise(pts []TrendPoint, v []float64) Cruise {
+// typicalCruise is the median weight, level, Mach and ISA deviation of the
+// points of details pts. The buffer v (len(pts)) serves the four columns
+// (each median reorders it).
+func typicalCruise(pts []PointDetail, v []float64) Cruise {
 	col := func(k int) float64 {
 		for i := range pts {
 			p := &pts[i]
@@ -468,7 +489,7 @@ func typicalCruise(pts []TrendPoint, v []float64) Cruise {
 
 // fitPolar fits the tail's own polar over its current segment: from the
 // last step or event on, since a repair or a step changes CD0.
-func (tr *TailTrend) fitPolar(usable []TrendPoint, c TrendConfig) {
+func (tr *TailTrend) fitPolar(usable []TrendPoint, det []PointDetail, c TrendConfig) {
 	tr.PolarFrom = tr.First
 	if k := len(tr.Steps); k > 0 && tr.Steps[k-1].Time.After(tr.PolarFrom) {
 		tr.PolarFrom = tr.Steps[k-1].Time
@@ -478,7 +499,7 @@ func (tr *TailTrend) fitPolar(usable []TrendPoint, c TrendConfig) {
 			tr.PolarFrom = e.Time
 		}
 	}
-	tr.Polar, tr.PolarErr = FitPolar(PolarPoints(usable, c, tr.PolarFrom))
+	tr.Polar, tr.PolarErr = FitPolar(PolarPoints(usable, det, c, tr.PolarFrom))
 }
 
 // findSteps segments the per-flight series and keeps significant jumps.

@@ -193,7 +193,7 @@ func TestAnalyzeTrend(t *testing.T) {
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			tr := AnalyzeTrend("T1", tc.pts, testFlights, nil, c)
+			tr := AnalyzeTrend("T1", tc.pts, nil, testFlights, nil, c)
 			if math.Abs(tr.RecentPct-tc.recent) > 0.25 {
 				t.Errorf("recent level %.2f, want %.2f", tr.RecentPct, tc.recent)
 			}
@@ -225,7 +225,13 @@ func TestAnalyzeTrendEvent(t *testing.T) {
 		return 4
 	})
 	ev := []Event{{Time: day0.Add(200 * 24 * time.Hour), Kind: "repair", Note: "seal replaced"}}
-	tr := AnalyzeTrend("T1", pts, testFlights, ev, DefaultTrendConfig())
+	// Details on an exact polar CD − wave = 0.02 + 0.04 CL², at one cruise.
+	det := make([]PointDetail, len(pts))
+	for i := range det {
+		cl := 0.4 + 0.1*float32(i%3)
+		det[i] = PointDetail{CL: cl, CDLessWave: 0.02 + 0.04*cl*cl, Weight: 60000, Altitude: 11000, Mach: 0.78, ISADev: 5}
+	}
+	tr := AnalyzeTrend("T1", pts, det, testFlights, ev, DefaultTrendConfig())
 	if len(tr.Steps) != 1 || tr.Steps[0].Event == nil || tr.Steps[0].Event.Kind != "repair" || math.Abs(tr.Steps[0].SizePct+4) > 0.3 {
 		t.Fatalf("steps %+v", tr.Steps)
 	}
@@ -237,13 +243,24 @@ func TestAnalyzeTrendEvent(t *testing.T) {
 	if tr.PolarFrom.Before(ev[0].Time) || tr.PolarFrom.After(tr.Steps[0].Time) {
 		t.Errorf("polar fitted from %v, want from the repair at %v (or its step at %v)", tr.PolarFrom, ev[0].Time, tr.Steps[0].Time)
 	}
+	if tr.PolarErr != nil || math.Abs(tr.Polar.CD0-0.02) > 1e-6 || math.Abs(tr.Polar.K-0.04) > 1e-5 {
+		t.Errorf("own polar CD0 %g, k %g (%v), want 0.02, 0.04", tr.Polar.CD0, tr.Polar.K, tr.PolarErr)
+	}
+	if tr.Typical != (Cruise{Weight: 60000, Altitude: 11000, Mach: float64(float32(0.78)), ISADev: 5}) {
+		t.Errorf("typical cruise %+v", tr.Typical)
+	}
+	// Without details: the same trend, no polar and no typical cruise.
+	bare := AnalyzeTrend("T1", pts, nil, testFlights, ev, DefaultTrendConfig())
+	if bare.PolarErr == nil || !math.IsNaN(bare.Typical.Weight) || bare.RecentPct != tr.RecentPct || len(bare.Steps) != 1 {
+		t.Errorf("without details: polar error %v, typical %+v, recent %g (with: %g)", bare.PolarErr, bare.Typical, bare.RecentPct, tr.RecentPct)
+	}
 }
 
 // The drift line is Sen's line through the daily medians: on a noiseless
 // drift of 1 pp per 100 days it reproduces the series itself.
 func TestDriftLine(t *testing.T) {
 	pts := series(200, 0, 1, func(d float64) float64 { return 0.5 + 0.01*d })
-	tr := AnalyzeTrend("T1", pts, testFlights, nil, DefaultTrendConfig())
+	tr := AnalyzeTrend("T1", pts, nil, testFlights, nil, DefaultTrendConfig())
 	if math.Abs(tr.Drift.Slope-1) > 1e-9 {
 		t.Fatalf("drift %+v, want 1 pp/100 d", tr.Drift)
 	}
@@ -261,11 +278,11 @@ func TestDriftLine(t *testing.T) {
 // points excluded, and an empty fleet.
 func TestTrendEdgeCases(t *testing.T) {
 	c := DefaultTrendConfig()
-	one := AnalyzeTrend("ONE", []TrendPoint{{UnixNano: day0.UnixNano(), Flight: testFlights.ID("A"), DevPct: 1.5, FuelFlowExpected: 0.6}}, testFlights, nil, c)
+	one := AnalyzeTrend("ONE", []TrendPoint{{UnixNano: day0.UnixNano(), Flight: testFlights.ID("A"), DevPct: 1.5, FuelFlowExpected: 0.6}}, nil, testFlights, nil, c)
 	if one.Points != 1 || len(one.Flights) != 1 || one.RecentPct != 1.5 || !math.IsNaN(one.Drift.Slope) || len(one.Steps) != 0 {
 		t.Errorf("one flight: %+v", one)
 	}
-	bad := AnalyzeTrend("BAD", []TrendPoint{{UnixNano: day0.UnixNano(), DevPct: 40}, {UnixNano: day0.UnixNano(), DevPct: 1, Manoeuvre: ManoeuvreBank}}, testFlights, nil, c)
+	bad := AnalyzeTrend("BAD", []TrendPoint{{UnixNano: day0.UnixNano(), DevPct: 40}, {UnixNano: day0.UnixNano(), DevPct: 1, Manoeuvre: ManoeuvreBank}}, nil, testFlights, nil, c)
 	if bad.Points != 0 || bad.Excluded[ExcludeImplausible] != 1 || bad.Excluded[ExcludeBank] != 1 || !math.IsNaN(bad.RecentPct) {
 		t.Errorf("all excluded: %+v", bad)
 	}
@@ -368,7 +385,7 @@ func TestRollingMedian(t *testing.T) {
 // about −55 %) has no level, and says why.
 func TestTrendWhy(t *testing.T) {
 	pts := series(40, 0.3, 2, func(float64) float64 { return -55 })
-	tr := AnalyzeTrend("T1", pts, testFlights, nil, DefaultTrendConfig())
+	tr := AnalyzeTrend("T1", pts, nil, testFlights, nil, DefaultTrendConfig())
 	why := tr.Why()
 	if !math.IsNaN(tr.RecentPct) || !strings.Contains(why, "all 80 snapshots left out") || !strings.Contains(why, "-55 %") ||
 		!strings.Contains(why, "all engines") {
@@ -378,7 +395,7 @@ func TestTrendWhy(t *testing.T) {
 	if !math.IsNaN(f.Tails[0].ExcessFuel) {
 		t.Errorf("excess fuel %g without a level, want NaN (null in JSON)", f.Tails[0].ExcessFuel)
 	}
-	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), testFlights, nil, DefaultTrendConfig()); ok.Why() != "" {
+	if ok := AnalyzeTrend("T2", series(40, 0.3, 2, func(float64) float64 { return 1 }), nil, testFlights, nil, DefaultTrendConfig()); ok.Why() != "" {
 		t.Errorf("a tail with a level says %q", ok.Why())
 	}
 }
@@ -389,8 +406,11 @@ func TestTrendPointSize(t *testing.T) {
 	if typ := reflect.TypeFor[TrendPoint](); hasPointer(typ) {
 		t.Errorf("TrendPoint holds a pointer")
 	}
-	if n := unsafe.Sizeof(TrendPoint{}); n > 64 {
-		t.Errorf("TrendPoint is %d bytes, want at most 64", n)
+	if n := unsafe.Sizeof(TrendPoint{}); n > 40 {
+		t.Errorf("TrendPoint is %d bytes, want at most 40", n)
+	}
+	if typ := reflect.TypeFor[PointDetail](); hasPointer(typ) || typ.Size() > 24 {
+		t.Errorf("PointDetail is %d bytes or holds a pointer", typ.Size())
 	}
 }
 
@@ -406,18 +426,19 @@ func BenchmarkAnalyzeTrend(b *testing.B) {
 		return 0.2
 	})
 	var pts []TrendPoint
+	var det []PointDetail
 	for _, p := range base { // three snapshots a flight
 		for k := 0; k < 3; k++ {
 			q := p
 			q.UnixNano = p.UnixNano + int64(time.Duration(20*k)*time.Minute)
-			q.CL, q.CDLessWave = 0.5+0.01*float32(k), 0.028+0.0005*float32(k)
 			pts = append(pts, q)
+			det = append(det, PointDetail{CL: 0.5 + 0.01*float32(k), CDLessWave: 0.028 + 0.0005*float32(k)})
 		}
 	}
 	c := DefaultTrendConfig()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		AnalyzeTrend("T", pts, testFlights, nil, c)
+		AnalyzeTrend("T", pts, det, testFlights, nil, c)
 	}
 	b.ReportMetric(float64(len(pts)*b.N)/b.Elapsed().Seconds(), "points/s")
 }
@@ -458,11 +479,11 @@ func TestAnalyzeTrendReusesBuffers(t *testing.T) {
 	}
 	alone := make([]TailTrend, len(tails))
 	for i, tc := range tails {
-		alone[i] = AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), testFlights, nil, c)
+		alone[i] = AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), nil, testFlights, nil, c)
 	}
 	for round := 0; round < 3; round++ {
 		for i, tc := range tails {
-			got := AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), testFlights, nil, c)
+			got := AnalyzeTrend(tc.name, append([]TrendPoint(nil), tc.pts...), nil, testFlights, nil, c)
 			if g, w := fmt.Sprintf("%+v", got), fmt.Sprintf("%+v", alone[i]); g != w { // NaN-safe, unlike reflect.DeepEqual
 				t.Errorf("round %d, %s: trend differs from the tail's alone:\n%s\n%s", round, tc.name, g, w)
 			}

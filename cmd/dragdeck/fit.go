@@ -102,9 +102,14 @@ CL. Choose tails and dates known to be clean (after a wash, before damage).`,
 	var pts []model.PolarPoint
 	seen := map[string]bool{}
 	excluded := 0
-	for tail, tp := range r.Points {
-		usable := model.PolarPoints(tp, c, time.Time{})
-		excluded += len(tp) - len(usable)
+	names := make([]string, 0, len(r.Points))
+	for tail := range r.Points {
+		names = append(names, tail)
+	}
+	sort.Strings(names) // the sums of the fit in one order: the same digits every run
+	for _, tail := range names {
+		usable := r.PolarPoints(tail, false)
+		excluded += len(r.Points[tail]) - len(usable)
 		if len(usable) > 0 {
 			seen[tail] = true
 		}

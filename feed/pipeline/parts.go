@@ -25,8 +25,9 @@ type partPoints struct {
 type tailPoints struct {
 	tail       string
 	pts        []model.TrendPoint
-	refs       []int64 // where each point's row is, when they are kept (Result.refsOf)
-	lastFlight string  // the last point's flight and its id: most rows
+	det        []model.PointDetail // their details, unless DropPoints
+	refs       []int64             // where each point's row is, when they are kept (Result.refsOf)
+	lastFlight string              // the last point's flight and its id: most rows
 	lastID     model.FlightID
 	roster     model.TailRoster
 }
@@ -58,6 +59,9 @@ func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoint
 		}
 		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
 		tp.pts = append(tp.pts, pt)
+		if !in.DropPoints {
+			tp.det = append(tp.det, model.NewDetail(snap, p))
+		}
 		if ref >= 0 {
 			tp.refs = append(tp.refs, ref<<refBits|(rec.Offset+1))
 		}
@@ -76,7 +80,7 @@ func (pp *partPoints) tail(r *model.Roster, name string) *tailPoints {
 	pp.at[name] = i
 	if i < cap(pp.tails) {
 		pp.tails = pp.tails[:i+1]
-		pp.tails[i].tail, pp.tails[i].pts, pp.tails[i].refs = name, pp.tails[i].pts[:0], pp.tails[i].refs[:0]
+		pp.tails[i].tail, pp.tails[i].pts, pp.tails[i].det, pp.tails[i].refs = name, pp.tails[i].pts[:0], pp.tails[i].det[:0], pp.tails[i].refs[:0]
 	} else {
 		pp.tails = append(pp.tails, tailPoints{tail: name})
 	}
@@ -114,6 +118,9 @@ func (r *Result) merge(pp *partPoints) {
 			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
 		r.chunks[tp.tail] = addChunked(r.chunks[tp.tail], tp.pts)
+		if len(tp.det) > 0 {
+			r.detChunks[tp.tail] = addChunked(r.detChunks[tp.tail], tp.det)
+		}
 		if len(tp.refs) > 0 {
 			r.refChunks[tp.tail] = addChunked(r.refChunks[tp.tail], tp.refs)
 		}
@@ -155,11 +162,12 @@ func addChunked[T any](cs [][]T, pts []T) [][]T {
 	return cs
 }
 
-// join returns a tail's points and where their rows are (nil when not
-// kept): those added one at a time (add) and its chunks from merge, in the
-// order they came, each in one slice of its size. The chunks are let go.
-func (r *Result) join(tail string) ([]model.TrendPoint, []int64) {
-	return joinChunks(r.Points[tail], r.chunks[tail]), joinChunks(nil, r.refChunks[tail])
+// join returns a tail's points, their details and where their rows are
+// (nil when not kept): those added one at a time (add) and its chunks
+// from merge, in the order they came, each in one slice of its size. The
+// chunks are let go.
+func (r *Result) join(tail string) ([]model.TrendPoint, []model.PointDetail, []int64) {
+	return joinChunks(r.Points[tail], r.chunks[tail]), joinChunks(r.details[tail], r.detChunks[tail]), joinChunks(nil, r.refChunks[tail])
 }
 
 // joinChunks returns first and then the chunks cs in one slice, and lets

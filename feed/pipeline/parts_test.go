@@ -41,9 +41,9 @@ func TestAddChunked(t *testing.T) {
 				t.Errorf("%d chunks hold %d points of %d, %d spare", len(cs), total, next, spare)
 			}
 			r := &Result{Points: map[string][]model.TrendPoint{}, chunks: map[string][][]model.TrendPoint{"T": cs}, refChunks: map[string][][]int64{}}
-			got, refs := r.join("T")
-			if refs != nil {
-				t.Errorf("join gave refs none were kept for")
+			got, det, refs := r.join("T")
+			if refs != nil || det != nil {
+				t.Errorf("join gave refs or details none were kept for")
 			}
 			if len(got) != int(next) || cap(got) != len(got) {
 				t.Fatalf("join: %d points (cap %d), want %d", len(got), cap(got), next)
@@ -65,8 +65,8 @@ func repeat(n, times int) []int {
 	return out
 }
 
-// inTime sorts points by time with their refs beside them, and drops a
-// repeated time (the first read stays), with or without refs.
+// inTime sorts points by time with their details and refs beside them,
+// and drops a repeated time (the first read stays), with or without them.
 func TestInTime(t *testing.T) {
 	at := func(ns ...int64) []model.TrendPoint {
 		out := make([]model.TrendPoint, len(ns))
@@ -92,9 +92,21 @@ func TestInTime(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			pts, refs, dropped := inTime(at(c.times...), append([]int64(nil), c.refs...))
+			var det []model.PointDetail // with the refs, details that name them
+			for _, r := range c.refs {
+				det = append(det, model.PointDetail{CL: float32(r)})
+			}
+			pts, det, refs, dropped := inTime(at(c.times...), det, append([]int64(nil), c.refs...))
 			if c.refs == nil {
 				refs = nil
+			}
+			if len(det) != len(refs) {
+				t.Fatalf("%d details for %d refs", len(det), len(refs))
+			}
+			for i := range det {
+				if det[i].CL != float32(refs[i]) {
+					t.Errorf("detail %d is of row %g, its ref %d", i, det[i].CL, refs[i])
+				}
 			}
 			got := make([]int64, len(pts))
 			for i, p := range pts {

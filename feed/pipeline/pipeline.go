@@ -44,9 +44,10 @@ type Input struct {
 	// DropPoints lets each tail's points go once its trends are computed:
 	// Result.Points is then empty (a report shows trends, not points, and
 	// its memory is then most of all the points at the end of the reading).
-	// What only the points' screens show is then not computed either: the
-	// typical cruise and the tail's own polar (TailTrend.Typical and
-	// Polar stay unset, as for an engine series).
+	// What only the points' screens show is then neither kept nor
+	// computed: the points' details (model.PointDetail), the typical cruise
+	// and the tail's own polar (TailTrend.Typical and Polar stay unset, as
+	// for an engine series).
 	DropPoints bool
 }
 
@@ -78,8 +79,9 @@ type Result struct {
 	// when it was, and when files were read).
 	SourceErr error
 
-	tailIdx, engineIdx map[string]int     // place of each tail in Fleet.Tails and Engine.Tails
-	names              *model.FlightNames // the flights of Points
+	tailIdx, engineIdx map[string]int                 // place of each tail in Fleet.Tails and Engine.Tails
+	names              *model.FlightNames             // the flights of Points
+	details            map[string][]model.PointDetail // beside Points, unless DropPoints
 	// refs: where each point's row is (refsOf, beside Points: the file's
 	// index in paths, and the row's offset), for FlightRecords.
 	refs    bool
@@ -89,9 +91,10 @@ type Result struct {
 	opt     feed.ReadOptions
 	src     Source // where FlightRecords reads a flight again, for a run on a Source
 
-	mu        sync.Mutex                      // merge: the parts of files read side by side
-	chunks    map[string][][]model.TrendPoint // by tail, the points of each part, till assess joins them
-	refChunks map[string][][]int64            // and where their rows are
+	mu        sync.Mutex                       // merge: the parts of files read side by side
+	chunks    map[string][][]model.TrendPoint  // by tail, the points of each part, till assess joins them
+	detChunks map[string][][]model.PointDetail // their details
+	refChunks map[string][][]int64             // and where their rows are
 }
 
 // refBits is where the file's index starts in a point's ref; below it
@@ -228,7 +231,7 @@ func (r *Result) PolarPoints(tail string, currentSegment bool) []model.PolarPoin
 	if a, ok := r.Tail(tail); ok && currentSegment {
 		from = a.PolarFrom
 	}
-	return model.PolarPoints(r.Points[tail], r.Config, from)
+	return model.PolarPoints(r.Points[tail], r.details[tail], r.Config, from)
 }
 
 // Run reads in.Paths and assesses the fleet. Files are read concurrently and
@@ -323,7 +326,8 @@ func newResult(in Input, files int) *Result {
 		typ = roster.Single()
 	}
 	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames(),
-		chunks: map[string][][]model.TrendPoint{}, refChunks: map[string][][]int64{}, refsOf: map[string][]int64{}}
+		chunks: map[string][][]model.TrendPoint{}, detChunks: map[string][][]model.PointDetail{}, refChunks: map[string][][]int64{},
+		refsOf: map[string][]int64{}, details: map[string][]model.PointDetail{}}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
 	}
@@ -366,6 +370,9 @@ func (r *Result) add(in Input, rec feed.Record) {
 	}
 	tp := r.Config.NewPoint(rec.Time, r.names.ID(rec.Flight), snap, p)
 	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
+	if !in.DropPoints {
+		r.details[rec.Tail] = append(r.details[rec.Tail], model.NewDetail(snap, p))
+	}
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
 	}
@@ -402,7 +409,7 @@ func (r *Result) assess(in Input) {
 	// how many were dropped: put back into the maps after the workers.
 	pointsOf, hasEngine := make([][]model.TrendPoint, len(tails)), make([]bool, len(tails))
 	recordsOf, dups := make([][]feed.Record, len(tails)), make([]int, len(tails))
-	refsOf := make([][]int64, len(tails))
+	refsOf, detOf := make([][]int64, len(tails)), make([][]model.PointDetail, len(tails))
 	jobs := make(chan int)
 	var wg sync.WaitGroup
 	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
@@ -416,15 +423,16 @@ func (r *Result) assess(in Input) {
 			for i := range jobs {
 				tail := tails[i]
 				var pts []model.TrendPoint
+				var det []model.PointDetail
 				var refs []int64
 				if in.DropPoints {
 					buf = joinInto(buf[:0], r.Points[tail], r.chunks[tail])
 					pts = buf
 				} else {
-					pts, refs = r.join(tail)
+					pts, det, refs = r.join(tail)
 				}
-				pts, refs, dups[i] = inTime(pts, refs)
-				pointsOf[i], refsOf[i] = pts, refs
+				pts, det, refs, dups[i] = inTime(pts, det, refs)
+				pointsOf[i], detOf[i], refsOf[i] = pts, det, refs
 				if recs := r.Records[tail]; recs != nil {
 					sort.SliceStable(recs, func(a, b int) bool { return recs[a].Time.Before(recs[b].Time) })
 					recordsOf[i], _ = dedupe(recs, func(r *feed.Record) int64 { return r.Time.UnixNano() })
@@ -435,9 +443,7 @@ func (r *Result) assess(in Input) {
 				if len(pts) > 0 {
 					last, _, _ = r.Roster.At(tail, pts[len(pts)-1].At())
 				}
-				cfg := in.Config
-				cfg.SkipCruise = cfg.SkipCruise || in.DropPoints
-				trends[i] = model.AnalyzeTrend(tail, pts, r.names, af, cfg)
+				trends[i] = model.AnalyzeTrend(tail, pts, det, r.names, af, in.Config)
 				trends[i].Type, trends[i].CruiseHours = last.Type, last.CruiseHours
 				var ep []model.TrendPoint
 				if in.DropPoints {
@@ -448,11 +454,11 @@ func (r *Result) assess(in Input) {
 				}
 				if len(ep) > 0 {
 					hasEngine[i] = true
-					engine[i] = model.AnalyzeTrend(tail, ep, r.names, en, in.Config.EngineSeries())
+					engine[i] = model.AnalyzeTrend(tail, ep, nil, r.names, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
 				if in.DropPoints {
-					pointsOf[i], refsOf[i] = nil, nil
+					pointsOf[i], detOf[i], refsOf[i] = nil, nil, nil
 				}
 			}
 		}()
@@ -471,12 +477,17 @@ func (r *Result) assess(in Input) {
 		if refsOf[i] != nil {
 			r.refsOf[tail] = refsOf[i]
 		}
+		if detOf[i] != nil {
+			r.details[tail] = detOf[i]
+		} else {
+			delete(r.details, tail)
+		}
 		if recordsOf[i] != nil {
 			r.Records[tail] = recordsOf[i]
 		}
 		r.Duplicates += dups[i]
 	}
-	r.chunks, r.refChunks = nil, nil
+	r.chunks, r.detChunks, r.refChunks = nil, nil, nil
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
@@ -488,46 +499,43 @@ func (r *Result) assess(in Input) {
 	r.tailIdx, r.engineIdx = index(r.Fleet.Tails), index(r.Engine.Tails)
 }
 
-// inTime sorts a tail's points by time, with where their rows are (refs,
-// nil when not kept), and drops the repeats of a time as dedupe does; it
-// returns them and how many were dropped. A file in time order gives them
-// sorted: they are then only checked.
-func inTime(pts []model.TrendPoint, refs []int64) ([]model.TrendPoint, []int64, int) {
-	if !slices.IsSortedFunc(pts, model.ByTime) {
-		if refs == nil {
-			slices.SortStableFunc(pts, model.ByTime)
-		} else { // the refs go with their points
-			type withRef struct {
-				p   model.TrendPoint
-				ref int64
-			}
-			both := make([]withRef, len(pts))
-			for i := range pts {
-				both[i] = withRef{pts[i], refs[i]}
-			}
-			slices.SortStableFunc(both, func(a, b withRef) int { return model.ByTime(a.p, b.p) })
-			for i, w := range both {
-				pts[i], refs[i] = w.p, w.ref
-			}
+// inTime sorts a tail's points by time, with their details and where
+// their rows are (det and refs, nil when not kept), and drops the repeats
+// of a time as dedupe does; it returns them and how many were dropped. A
+// file in time order gives them sorted: they are then only checked.
+func inTime(pts []model.TrendPoint, det []model.PointDetail, refs []int64) ([]model.TrendPoint, []model.PointDetail, []int64, int) {
+	if order := model.TimeOrder(pts); order != nil {
+		model.Reorder(pts, order)
+		if det != nil {
+			model.Reorder(det, order)
+		}
+		if refs != nil {
+			model.Reorder(refs, order)
 		}
 	}
 	if len(pts) < 2 {
-		return pts, refs, 0
+		return pts, det, refs, 0
 	}
 	k := 1
 	for i := 1; i < len(pts); i++ {
 		if pts[i].UnixNano != pts[k-1].UnixNano {
 			pts[k] = pts[i]
+			if det != nil {
+				det[k] = det[i]
+			}
 			if refs != nil {
 				refs[k] = refs[i]
 			}
 			k++
 		}
 	}
+	if det != nil {
+		det = det[:k]
+	}
 	if refs != nil {
 		refs = refs[:k]
 	}
-	return pts[:k], refs, len(pts) - k
+	return pts[:k], det, refs, len(pts) - k
 }
 
 // dedupe drops from s, in time order, each element whose time equals the
