@@ -51,11 +51,8 @@ func Median(v []float64) float64 {
 // RollingMedian returns, for each i, the median of v over the window
 // [i − half, i + half] clipped to the ends of v. The window is kept sorted
 // as it slides (slidingWindow).
-func RollingMedian(v []float64, half int) []float64 { return rollingMedian(v, half, nil) }
-
-// rollingMedian is RollingMedian with its result from a.
-func rollingMedian(v []float64, half int, a *arena) []float64 {
-	out := a.floats(len(v))
+func RollingMedian(v []float64, half int) []float64 {
+	out := make([]float64, len(v))
 	if hasNaN(v) { // a NaN has no place in a sorted window: each window anew
 		buf := make([]float64, 0, 2*half+1)
 		for i := range v {

@@ -243,14 +243,14 @@ func (c *TrendConfig) Usable(p TrendPoint) string {
 	return ""
 }
 
-// FlightPoint is the median deviation of one flight: 32 bytes and no
-// pointer, as a fleet has hundreds of thousands of flights.
+// FlightPoint is the median deviation of one flight: 24 bytes and no
+// pointer, as a fleet has millions of flights. Their rolling median is
+// TailTrend.Rolling, made when a chart draws it.
 type FlightPoint struct {
-	UnixNano   int64 // first snapshot of the flight, ns since 1970-01-01 UTC (At)
-	DevPct     float64
-	RollingPct float64  // rolling median of DevPct over 2·RollingHalf+1 flights
-	Flight     FlightID // its name: TailTrend.FlightName
-	N          int32    // snapshots
+	UnixNano int64 // first snapshot of the flight, ns since 1970-01-01 UTC (At)
+	DevPct   float64
+	Flight   FlightID // its name: TailTrend.FlightName
+	N        int32    // snapshots
 }
 
 // At is the time of the flight's first snapshot (UTC).
@@ -279,6 +279,9 @@ type TailTrend struct {
 
 	Flights []FlightPoint
 	Names   *FlightNames // the names of the flights
+	// RollingHalf is the configuration's: Rolling spans 2·RollingHalf+1
+	// flights.
+	RollingHalf int
 
 	RecentPct float64 // median of the per-flight deviations of the last RecentDays; NaN if none
 
@@ -298,6 +301,18 @@ type TailTrend struct {
 	// as implausible (NaN if none): when every snapshot is, it says by how
 	// much and so hints at the cause (a fuel flow of one engine, a unit).
 	ImplausibleMedianPct float64
+}
+
+// Rolling returns the rolling median of the flights' deviations, one per
+// flight, over 2·RollingHalf+1 flights (RollingMedian): the line a chart
+// draws through them, made when it is drawn rather than kept for every
+// tail of a fleet.
+func (tr *TailTrend) Rolling() []float64 {
+	devs := make([]float64, len(tr.Flights))
+	for i, f := range tr.Flights {
+		devs[i] = f.DevPct
+	}
+	return RollingMedian(devs, tr.RollingHalf)
 }
 
 // FlightName is the name of one of the tail's flights.
@@ -420,15 +435,9 @@ func AnalyzeTrend(tail string, pts []TrendPoint, det []PointDetail, names *Fligh
 		tr.Typical = typicalCruise(udet, ff)
 	}
 	tr.Flights = Flights(usable, c.FlightGap)
+	tr.RollingHalf = c.RollingHalf
 	ar := &sc.ar
 	ar.reset()
-	devs := ar.floats(len(tr.Flights))
-	for i, f := range tr.Flights {
-		devs[i] = f.DevPct
-	}
-	for i, r := range rollingMedian(devs, c.RollingHalf, ar) {
-		tr.Flights[i].RollingPct = r
-	}
 
 	recentFrom := tr.Last.Add(-time.Duration(c.RecentDays * 24 * float64(time.Hour)))
 	recent := ar.floats(len(tr.Flights))[:0]

@@ -269,7 +269,11 @@ func TestDriftLine(t *testing.T) {
 			t.Errorf("drift line at %v = %g, want the flight's %g", f.At(), got, f.DevPct)
 		}
 	}
-	if r := tr.Flights[50].RollingPct; math.Abs(r-tr.Flights[50].DevPct) > 0.01 {
+	rolling := tr.Rolling()
+	if len(rolling) != len(tr.Flights) {
+		t.Fatalf("%d rolling medians of %d flights", len(rolling), len(tr.Flights))
+	}
+	if r := rolling[50]; math.Abs(r-tr.Flights[50].DevPct) > 0.01 {
 		t.Errorf("rolling median of a straight line = %g, want about %g", r, tr.Flights[50].DevPct)
 	}
 }

@@ -205,23 +205,25 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	x := func(t time.Time) float64 { return float64(t.Unix()) / 86400 }
 	var pts, med [][2]float64
 	var ys []float64
-	for _, f := range a.Flights {
+	rolling := a.Rolling()
+	for i, f := range a.Flights {
 		t := f.At()
 		if t.Before(start) || t.After(end) {
 			continue
 		}
 		pts = append(pts, [2]float64{x(t), f.DevPct})
-		med = append(med, [2]float64{x(t), f.RollingPct})
+		med = append(med, [2]float64{x(t), rolling[i]})
 		ys = append(ys, f.DevPct)
 	}
 	// The engine series' rolling median shares the axis, so the range
 	// holds it too (a meter reading 4 % high sits above the airframe's).
 	e, hasEngine := s.data.EngineTail(a.Tail)
 	var em [][2]float64
-	for _, f := range e.Flights {
-		if t := f.At(); hasEngine && !t.Before(start) && !t.After(end) && !math.IsNaN(f.RollingPct) {
-			em = append(em, [2]float64{x(t), f.RollingPct})
-			ys = append(ys, f.RollingPct)
+	engineRolling := e.Rolling()
+	for i, f := range e.Flights {
+		if t := f.At(); hasEngine && !t.Before(start) && !t.After(end) && !math.IsNaN(engineRolling[i]) {
+			em = append(em, [2]float64{x(t), engineRolling[i]})
+			ys = append(ys, engineRolling[i])
 		}
 	}
 	lo, hi := span(ys, 0.05, 0.5)

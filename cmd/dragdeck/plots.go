@@ -151,8 +151,8 @@ func tailPlot(a model.TailAssessment, c model.TrendConfig) *plot.Plot {
 	p.Legend.Add("flights", sc)
 
 	mline := make(plotter.XYs, n)
-	for i, fl := range a.Flights {
-		mline[i] = plotter.XY{X: pts[i].X, Y: fl.RollingPct}
+	for i, r := range a.Rolling() {
+		mline[i] = plotter.XY{X: pts[i].X, Y: r}
 	}
 	ml, _ := plotter.NewLine(mline)
 	ml.Color, ml.Width = colMedian, vg.Points(1.5)
