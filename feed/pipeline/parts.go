@@ -11,14 +11,13 @@ import (
 )
 
 // partPoints is the analysis of one part of a file (a few thousand rows):
-// its points by tail, each tail's in file order, with flights numbered
-// within the part (flights gives their names), and the span of their times.
+// its points by tail, each tail's in file order, with their flights
+// numbered in the result's table, and the span of their times.
 type partPoints struct {
 	tails       []tailPoints
-	at          map[string]int // tail → its place in tails
-	flights     []string
-	flightAt    map[string]model.FlightID
-	first, last int64 // ns; first > last: no point
+	at          map[string]int            // tail → its place in tails
+	flightAt    map[string]model.FlightID // the part's flights and their ids in the result's table
+	first, last int64                     // ns; first > last: no point
 }
 
 // tailPoints is one tail's points of a part.
@@ -55,7 +54,7 @@ func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoint
 			continue // rejected by the reader's tail check
 		}
 		if len(tp.pts) == 0 || rec.Flight != tp.lastFlight {
-			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(rec.Flight)
+			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(r, rec.Flight)
 		}
 		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
 		tp.pts = append(tp.pts, pt)
@@ -88,13 +87,18 @@ func (pp *partPoints) tail(r *model.Roster, name string) *tailPoints {
 	return &pp.tails[i]
 }
 
-// flight returns the part's id of a flight name.
-func (pp *partPoints) flight(name string) model.FlightID {
+// flight returns the id of a flight name in the result's table, which the
+// parts decoded side by side share (under r.namesMu): each part asks it
+// once per flight name, so that the points need no renumbering when they
+// are merged. An id says which flight a point is of, nothing more, so the
+// order in which the parts number them does not matter.
+func (pp *partPoints) flight(r *Result, name string) model.FlightID {
 	if id, ok := pp.flightAt[name]; ok {
 		return id
 	}
-	id := model.FlightID(len(pp.flights))
-	pp.flights = append(pp.flights, name)
+	r.namesMu.Lock()
+	id := r.names.ID(name)
+	r.namesMu.Unlock()
 	pp.flightAt[name] = id
 	return id
 }
@@ -105,17 +109,10 @@ func (pp *partPoints) flight(name string) model.FlightID {
 func (r *Result) merge(pp *partPoints) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
-	ids := make([]model.FlightID, len(pp.flights))
-	for i, name := range pp.flights {
-		ids[i] = r.names.ID(name)
-	}
 	for i := range pp.tails {
 		tp := &pp.tails[i]
 		if len(tp.pts) == 0 { // its rows were all left out: no tail of the result
 			continue
-		}
-		for k := range tp.pts {
-			tp.pts[k].Flight = ids[tp.pts[k].Flight]
 		}
 		r.chunks[tp.tail] = addChunked(r.chunks[tp.tail], tp.pts)
 		if len(tp.det) > 0 {
@@ -134,7 +131,6 @@ func (r *Result) merge(pp *partPoints) {
 		}
 	}
 	pp.tails = pp.tails[:0]
-	pp.flights = pp.flights[:0]
 	clear(pp.at)
 	clear(pp.flightAt)
 	parts.Put(pp)

@@ -81,6 +81,7 @@ type Result struct {
 
 	tailIdx, engineIdx map[string]int                 // place of each tail in Fleet.Tails and Engine.Tails
 	names              *model.FlightNames             // the flights of Points
+	namesMu            sync.Mutex                     // names, while parts are analysed side by side
 	details            map[string][]model.PointDetail // beside Points, unless DropPoints
 	// refs: where each point's row is (refsOf, beside Points: the file's
 	// index in paths, and the row's offset), for FlightRecords.
