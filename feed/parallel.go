@@ -26,9 +26,10 @@ type part struct {
 	rejects    []*RowError
 	stats      Stats
 	lines      int
-	headerAt   bool   // it holds a header line: read again from its start, in order
-	err        error  // an I/O error
-	merge      func() // what the work on its records gave, to hand on (ReadFileParts)
+	headerAt   bool     // it holds a header line: read again from its start, in order
+	err        error    // an I/O error
+	sink       PartSink // takes its records as they are decoded (ReadFileParts)
+	merge      func()   // what the sink made of them, to hand on (ReadFileParts)
 	done       chan struct{}
 }
 
@@ -46,22 +47,39 @@ func ReadFileParallel(path string, opt ReadOptions, workers int, accept func(Rec
 	return readParts(path, opt, workers, nil, accept, reject)
 }
 
+// A PartSink takes the records of one part of a file (ReadFileParts) as
+// they are decoded, a few hundred at a time, so that they are worked on
+// while they are still in the processor's cache.
+type PartSink interface {
+	// Add is given the next records of the part, in file order, on the
+	// goroutine that decodes it; the slice is reused once Add returns.
+	Add(recs []Record)
+	// Done is called on that goroutine once the part is decoded; the
+	// function it returns hands the sink's result on, in file order, on
+	// the caller's goroutine. A part that must be read again (a header
+	// line inside it) or could not be read has its sink dropped instead,
+	// without Done.
+	Done() func()
+}
+
 // ReadFileParts is ReadFileParallel for a caller that works on the records
-// itself in parallel: work is given the records of one part (a few
-// thousand, in file order) on the goroutine that decoded them, at the same
-// time as other parts; the function it returns is called in file order on
-// the caller's goroutine, between the rejects of the parts before and
-// after, to hand its result on. Within work a record's Line counts from
-// the start of its part (its Offset is the file's); the slice is reused
-// once work returns. Where the file is read by one decoder (a small file,
-// workers < 2, after a header line inside the file), work and then what it
-// returns are called on the caller's goroutine, every batchRecords records,
-// with the file's own lines.
-func ReadFileParts(path string, opt ReadOptions, workers int, work func(recs []Record) func(), reject func(*RowError)) FileResult {
+// itself in parallel: newSink gives a sink for each part of the file,
+// which takes the part's records on the goroutine that decodes them (a
+// few thousand in all, in file order) while other parts are decoded; what
+// its Done returns is called in file order on the caller's goroutine,
+// between the rejects of the parts before and after, to hand its result
+// on. Within a sink a record's Line counts from the start of its part (its
+// Offset is the file's). Where the file is read by one decoder (a small
+// file, workers < 2, after a header line inside the file), a sink takes
+// batchRecords records at a time on the caller's goroutine, with the
+// file's own lines, and its Done and what that returns are called at once.
+func ReadFileParts(path string, opt ReadOptions, workers int, newSink func() PartSink, reject func(*RowError)) FileResult {
 	var batch []Record
 	flush := func() {
 		if len(batch) > 0 {
-			work(batch)()
+			s := newSink()
+			s.Add(batch)
+			s.Done()()
 			batch = batch[:0]
 		}
 	}
@@ -80,20 +98,24 @@ func ReadFileParts(path string, opt ReadOptions, workers int, work func(recs []R
 			reject(e)
 		}
 	}
-	res := readParts(path, opt, workers, work, accept, rejectInOrder)
+	res := readParts(path, opt, workers, newSink, accept, rejectInOrder)
 	flush()
 	return res
 }
+
+// sinkBatch is how many records a worker decodes before it hands them to
+// the part's sink: 256 records of about 180 bytes stay in the cache.
+const sinkBatch = 256
 
 // batchRecords is how many records ReadFileParts gives work at a time
 // where one decoder reads.
 const batchRecords = 4096
 
 // readParts reads path by parts, as ReadFileParallel and ReadFileParts do:
-// with work nil, every record goes to accept in order; else the records of
-// each part go to work on their goroutine, and the records read by one
-// decoder go to accept.
-func readParts(path string, opt ReadOptions, workers int, work func([]Record) func(), accept func(Record), reject func(*RowError)) FileResult {
+// with newSink nil, every record goes to accept in order; else the records
+// of each part go to a sink of its own on their goroutine, and the records
+// read by one decoder go to accept.
+func readParts(path string, opt ReadOptions, workers int, newSink func() PartSink, accept func(Record), reject func(*RowError)) FileResult {
 	fi, err := os.Stat(path)
 	if workers < 2 || err != nil || !fi.Mode().IsRegular() || fi.Size() < minParallel {
 		return ReadFileWith(path, opt, accept, reject)
@@ -138,15 +160,20 @@ func readParts(path string, opt ReadOptions, workers int, work func([]Record) fu
 				if k >= len(parts) {
 					return
 				}
-				select {
-				case parts[k].recs = <-free:
-				default:
-					parts[k].recs = make([]Record, 0, (parts[k].end-parts[k].start)/40+16)
+				if newSink != nil {
+					parts[k].sink = newSink()
+				} else {
+					select {
+					case parts[k].recs = <-free:
+					default:
+						parts[k].recs = make([]Record, 0, (parts[k].end-parts[k].start)/40+16)
+					}
 				}
 				decodePart(f, path, hdr, opt, parts[k], &pr)
-				if work != nil && parts[k].err == nil && !parts[k].headerAt {
-					parts[k].merge = work(parts[k].recs)
+				if parts[k].sink != nil && parts[k].err == nil && !parts[k].headerAt {
+					parts[k].merge = parts[k].sink.Done()
 				}
+				parts[k].sink = nil
 				close(parts[k].done)
 			}
 		}()
@@ -186,9 +213,11 @@ func readParts(path string, opt ReadOptions, workers int, work func([]Record) fu
 		}
 		res.Stats.Add(p.stats)
 		line += p.lines
-		select {
-		case free <- p.recs[:0]:
-		default:
+		if p.recs != nil {
+			select {
+			case free <- p.recs[:0]:
+			default:
+			}
 		}
 		parts[k].recs, parts[k].rejects, parts[k].merge = nil, nil, nil
 	}
@@ -265,10 +294,11 @@ func partDecoder(path string, hdr *header, opt ReadOptions) *Decoder {
 }
 
 // partReader is a worker's reader of parts: its decoder keeps the names
-// it has interned and its buffer from one part to the next.
+// it has interned and its buffers from one part to the next.
 type partReader struct {
-	d  *Decoder
-	br *bufio.Reader
+	d     *Decoder
+	br    *bufio.Reader
+	batch []Record // the records not yet given to the part's sink
 }
 
 // decodePart reads one part with the worker's decoder, lines counted from
@@ -288,7 +318,24 @@ func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part, 
 	pr.d.stats = Stats{} // counted per part
 	r := &Reader{d: pr.d, br: pr.br}
 	r.offBase = p.start
-	err := r.each(func(rec Record) { p.recs = append(p.recs, rec) }, func(e *RowError) { p.rejects = append(p.rejects, e) })
+	accept := func(rec Record) { p.recs = append(p.recs, rec) }
+	if p.sink != nil {
+		if pr.batch == nil {
+			pr.batch = make([]Record, 0, sinkBatch)
+		}
+		accept = func(rec Record) {
+			pr.batch = append(pr.batch, rec)
+			if len(pr.batch) == sinkBatch {
+				p.sink.Add(pr.batch)
+				pr.batch = pr.batch[:0]
+			}
+		}
+	}
+	err := r.each(accept, func(e *RowError) { p.rejects = append(p.rejects, e) })
+	if p.sink != nil && len(pr.batch) > 0 {
+		p.sink.Add(pr.batch)
+	}
+	pr.batch = pr.batch[:0]
 	switch {
 	case errors.Is(err, errHeaderInPart):
 		p.headerAt = true

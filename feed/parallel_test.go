@@ -72,9 +72,8 @@ func TestReadFileParallelSameAsOne(t *testing.T) {
 			// count from the part's start) and rejects, in the same order.
 			var partRecs []Record
 			var partRej []string
-			parts := ReadFileParts(p, ReadOptions{}, 3, func(recs []Record) func() {
-				mine := append([]Record(nil), recs...)
-				return func() { partRecs = append(partRecs, mine...) }
+			parts := ReadFileParts(p, ReadOptions{}, 3, func() PartSink {
+				return &keepSink{out: &partRecs}
 			}, func(e *RowError) { partRej = append(partRej, e.Error()) })
 			if parts.Stats != want.Stats || len(partRecs) != len(wantRecs) || !reflect.DeepEqual(partRej, wantRej) {
 				t.Fatalf("parts: %+v, %d records, rejects %q; one decoder %+v, %d, %q", parts, len(partRecs), partRej, want, len(wantRecs), wantRej)
@@ -89,3 +88,12 @@ func TestReadFileParallelSameAsOne(t *testing.T) {
 		})
 	}
 }
+
+// keepSink keeps the records of its part and hands them on to out.
+type keepSink struct {
+	mine []Record
+	out  *[]Record
+}
+
+func (k *keepSink) Add(recs []Record) { k.mine = append(k.mine, recs...) }
+func (k *keepSink) Done() func()      { return func() { *k.out = append(*k.out, k.mine...) } }

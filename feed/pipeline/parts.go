@@ -36,13 +36,39 @@ var parts = sync.Pool{New: func() any {
 	return &partPoints{at: map[string]int{}, flightAt: map[string]model.FlightID{}}
 }}
 
-// analysePart analyses the records of one part, on the goroutine that
-// decoded them, as add does one record: the type in force for its tail at
-// its time, the fuel flow corrected by the fleet file's meter bias. ref is
-// the file's index, for where each point's row is (−1: not kept).
-func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoints {
+// analysePart analyses the records of one part (analyse) into a
+// partPoints of its own.
+func (r *Result) analysePart(in *Input, recs []feed.Record, ref int64) *partPoints {
+	pp := newPartPoints()
+	r.analyse(pp, in, recs, ref)
+	return pp
+}
+
+// newPartPoints returns an empty partPoints from the pool.
+func newPartPoints() *partPoints {
 	pp := parts.Get().(*partPoints)
 	pp.first, pp.last = math.MaxInt64, math.MinInt64
+	return pp
+}
+
+// partSink analyses the records of one part of a file as they are
+// decoded (a feed.PartSink), on the goroutine that decodes them, and
+// merges its points in file order.
+type partSink struct {
+	r   *Result
+	in  *Input
+	ref int64
+	pp  *partPoints
+}
+
+func (s *partSink) Add(recs []feed.Record) { s.r.analyse(s.pp, s.in, recs, s.ref) }
+func (s *partSink) Done() func()           { return func() { s.r.merge(s.pp) } }
+
+// analyse analyses records of a part into pp, as add does one record: the
+// type in force for its tail at its time, the fuel flow corrected by the
+// fleet file's meter bias. ref is the file's index, for where each point's
+// row is (−1: not kept).
+func (r *Result) analyse(pp *partPoints, in *Input, recs []feed.Record, ref int64) {
 	for i := range recs {
 		rec := &recs[i]
 		if in.Filter != nil && !in.Filter(*rec) {
@@ -66,7 +92,6 @@ func (r *Result) analysePart(in Input, recs []feed.Record, ref int64) *partPoint
 		}
 		pp.first, pp.last = min(pp.first, pt.UnixNano), max(pp.last, pt.UnixNano)
 	}
-	return pp
 }
 
 // tail returns the part's points of a tail, reusing the slices of a part

@@ -266,7 +266,7 @@ func Run(in Input) *Result {
 	var wg sync.WaitGroup
 	// Files are read side by side; a file is cut into parts for the
 	// cores that no other file uses (one big export on its own). Each part
-	// is analysed where it was decoded (analysePart) and its points are
+	// is analysed where it is decoded (partSink) and its points are
 	// filed under their tails in file order (merge).
 	perFile := max(1, runtime.GOMAXPROCS(0)/max(1, len(in.Paths)))
 	for w := 0; w < max(1, min(runtime.GOMAXPROCS(0), len(in.Paths))); w++ {
@@ -279,9 +279,8 @@ func Run(in Input) *Result {
 				if r.refs {
 					ref = int64(r.fileIdx[in.Paths[i]])
 				}
-				r.Files[i] = feed.ReadFileParts(in.Paths[i], opt, perFile, func(recs []feed.Record) func() {
-					pp := r.analysePart(in, recs, ref)
-					return func() { r.merge(pp) }
+				r.Files[i] = feed.ReadFileParts(in.Paths[i], opt, perFile, func() feed.PartSink {
+					return &partSink{r: r, in: &in, ref: ref, pp: newPartPoints()}
 				}, onReject)
 			}
 		}()

@@ -44,7 +44,7 @@ func runSource(in Input) *Result {
 		go func() {
 			defer wg.Done()
 			for j := range jobs {
-				j.done <- r.analysePart(in, j.recs, -1)
+				j.done <- r.analysePart(&in, j.recs, -1)
 			}
 		}()
 	}
