@@ -10,13 +10,26 @@ import (
 	"sync/atomic"
 )
 
-// Sizes of the parts a file is cut into for ReadFileParallel: smaller
-// files are read by one decoder.
+// Sizes of the parts a file is cut into for ReadFileParallel: parts of
+// partBytes, or a partsPerFile-th of a larger file up to maxPartBytes (a
+// part's points are filed tail by tail: the more tails a file has, the
+// more rows a part needs for its tails' share to be worth filing);
+// smaller files are read by one decoder.
 var (
 	partBytes    int64 = 1 << 20
+	maxPartBytes int64 = 8 << 20
 	minParallel  int64 = 4 << 20
 	headerWindow       = 2*maxLine + 64<<10 // where the header must be found
 )
+
+// partsPerFile is how many parts a large file is cut into: enough for the
+// cores to finish together (the last part is the only one alone).
+const partsPerFile = 128
+
+// partSize is the size of the parts of a file of size bytes.
+func partSize(size int64) int64 {
+	return max(partBytes, min(maxPartBytes, size/partsPerFile))
+}
 
 // part is one stretch of a file, [start, end) at line ends, and what its
 // decoder found in it, with lines counted from the part's start.
@@ -255,13 +268,13 @@ func readHeader(f *os.File, path string) (*header, int64, int, bool) {
 	return nil, 0, 0, false
 }
 
-// cutParts cuts [from, size) into parts of about partBytes, each ending
+// cutParts cuts [from, size) into parts of about partSize, each ending
 // just after a line end (or at the end of the file).
 func cutParts(f *os.File, from, size int64) []*part {
 	var parts []*part
 	buf := make([]byte, 64<<10)
 	for start := from; start < size; {
-		end := start + partBytes
+		end := start + partSize(size)
 		if end >= size {
 			end = size
 		} else {

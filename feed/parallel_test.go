@@ -15,8 +15,8 @@ import (
 // CRLF line ends, a BOM, a too-long line, a last line without its end and
 // a second header (which switches to one decoder from its part on).
 func TestReadFileParallelSameAsOne(t *testing.T) {
-	defer func(p, m int64) { partBytes, minParallel = p, m }(partBytes, minParallel)
-	partBytes, minParallel = 700, 0 // many small parts
+	defer func(p, x, m int64) { partBytes, maxPartBytes, minParallel = p, x, m }(partBytes, maxPartBytes, minParallel)
+	partBytes, maxPartBytes, minParallel = 700, 700, 0 // many small parts
 	head := "time,tail,flight,weight_kg,alt_ft,mach,sat_c,fuel_flow_kgph\n"
 	row := func(i int) string {
 		return fmt.Sprintf("2026-03-01T%02d:%02d:00Z,DD%d,F%d,%d,35000,0.78,-54.3,2380\n", i/60%24, i%60, 100+i%7, i%13, 60000+i)
@@ -97,3 +97,25 @@ type keepSink struct {
 
 func (k *keepSink) Add(recs []Record) { k.mine = append(k.mine, recs...) }
 func (k *keepSink) Done() func()      { return func() { *k.out = append(*k.out, k.mine...) } }
+
+// A large file is cut into partsPerFile parts, within partBytes and
+// maxPartBytes.
+func TestPartSize(t *testing.T) {
+	tests := []struct {
+		name string
+		size int64
+		want int64
+	}{
+		{"small file: the smallest part", 5 << 20, partBytes},
+		{"80 MB (1 M rows)", 80 << 20, partBytes},
+		{"800 MB (10 M rows)", 800 << 20, (800 << 20) / partsPerFile},
+		{"a terabyte: the largest part", 1 << 40, maxPartBytes},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if got := partSize(tt.size); got != tt.want {
+				t.Errorf("partSize(%d) = %d, want %d", tt.size, got, tt.want)
+			}
+		})
+	}
+}
