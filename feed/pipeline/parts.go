@@ -2,7 +2,6 @@ package pipeline
 
 import (
 	"math"
-	"slices"
 	"sync"
 	"time"
 
@@ -139,7 +138,12 @@ func (r *Result) merge(pp *partPoints) {
 		if len(tp.pts) == 0 { // its rows were all left out: no tail of the result
 			continue
 		}
-		r.chunks[tp.tail] = addChunked(r.chunks[tp.tail], tp.pts)
+		pk := r.packs[tp.tail]
+		if pk == nil {
+			pk = new(packed)
+			r.packs[tp.tail] = pk
+		}
+		pk.add(tp.pts, &r.packSc)
 		if len(tp.det) > 0 {
 			r.detChunks[tp.tail] = addChunked(r.detChunks[tp.tail], tp.det)
 		}
@@ -184,11 +188,15 @@ func addChunked[T any](cs [][]T, pts []T) [][]T {
 }
 
 // join returns a tail's points, their details and where their rows are
-// (nil when not kept): those added one at a time (add) and its chunks
-// from merge, in the order they came, each in one slice of its size. The
-// chunks are let go.
+// (nil when not kept): those added one at a time (add) and those packed
+// by merge, in the order they came, each in one slice of its size. The
+// packed points and the chunks are let go.
 func (r *Result) join(tail string) ([]model.TrendPoint, []model.PointDetail, []int64) {
-	return joinChunks(r.Points[tail], r.chunks[tail]), joinChunks(r.details[tail], r.detChunks[tail]), joinChunks(nil, r.refChunks[tail])
+	pts := r.Points[tail]
+	if pk := r.packs[tail]; pk != nil && pk.n > 0 {
+		pts = pk.unpack(append(make([]model.TrendPoint, 0, len(pts)+pk.n), pts...))
+	}
+	return pts, joinChunks(r.details[tail], r.detChunks[tail]), joinChunks(nil, r.refChunks[tail])
 }
 
 // joinChunks returns first and then the chunks cs in one slice, and lets
@@ -201,16 +209,7 @@ func joinChunks[T any](first []T, cs [][]T) []T {
 	for _, c := range cs {
 		n += len(c)
 	}
-	return joinInto(make([]T, 0, n), first, cs)
-}
-
-// joinInto is joinChunks appending to dst (a buffer to reuse).
-func joinInto[T any](dst, first []T, cs [][]T) []T {
-	n := len(first)
-	for _, c := range cs {
-		n += len(c)
-	}
-	dst = append(slices.Grow(dst, n), first...)
+	dst := append(make([]T, 0, n), first...)
 	for k, c := range cs {
 		dst = append(dst, c...)
 		cs[k] = nil

@@ -93,7 +93,8 @@ type Result struct {
 	src     Source // where FlightRecords reads a flight again, for a run on a Source
 
 	mu        sync.Mutex                       // merge: the parts of files read side by side
-	chunks    map[string][][]model.TrendPoint  // by tail, the points of each part, till assess joins them
+	packs     map[string]*packed               // by tail, the points of each part, till assess joins them
+	packSc    packScratch                      // merge's buffers for packing them
 	detChunks map[string][][]model.PointDetail // their details
 	refChunks map[string][][]int64             // and where their rows are
 }
@@ -326,7 +327,7 @@ func newResult(in Input, files int) *Result {
 		typ = roster.Single()
 	}
 	r := &Result{Type: typ, Roster: roster, Config: in.Config, Points: map[string][]model.TrendPoint{}, Files: make([]feed.FileResult, files), names: model.NewFlightNames(),
-		chunks: map[string][][]model.TrendPoint{}, detChunks: map[string][][]model.PointDetail{}, refChunks: map[string][][]int64{},
+		packs: map[string]*packed{}, detChunks: map[string][][]model.PointDetail{}, refChunks: map[string][][]int64{},
 		refsOf: map[string][]int64{}, details: map[string][]model.PointDetail{}}
 	if in.KeepRecords {
 		r.Records = map[string][]feed.Record{}
@@ -393,11 +394,11 @@ func (r *Result) add(in Input, rec feed.Record) {
 // force at its last snapshot, for its level flag, and priced with that
 // entry's cruise hours.
 func (r *Result) assess(in Input) {
-	tails := make([]string, 0, len(r.Points)+len(r.chunks))
+	tails := make([]string, 0, len(r.Points)+len(r.packs))
 	for tail := range r.Points {
 		tails = append(tails, tail)
 	}
-	for tail := range r.chunks {
+	for tail := range r.packs {
 		if _, ok := r.Points[tail]; !ok {
 			tails = append(tails, tail)
 		}
@@ -426,7 +427,7 @@ func (r *Result) assess(in Input) {
 				var det []model.PointDetail
 				var refs []int64
 				if in.DropPoints {
-					buf = joinInto(buf[:0], r.Points[tail], r.chunks[tail])
+					buf = r.packs[tail].unpack(append(buf[:0], r.Points[tail]...))
 					pts = buf
 				} else {
 					pts, det, refs = r.join(tail)
@@ -487,7 +488,7 @@ func (r *Result) assess(in Input) {
 		}
 		r.Duplicates += dups[i]
 	}
-	r.chunks, r.detChunks, r.refChunks = nil, nil, nil
+	r.packs, r.detChunks, r.refChunks = nil, nil, nil
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
