@@ -13,12 +13,21 @@ import (
 // tail without fan speed has none), and the rest as bytes: per point one
 // byte of flags, the change of time from the point before (a zigzag
 // varint, in whole seconds where it is whole, as in most exports) and the
-// change of flight id (a zigzag varint). Each column is chunked
-// (addChunked), so that nothing moves while the tail is read. unpack gives
-// the points back exactly (a NaN stays a NaN).
+// change of flight id (a zigzag varint); the first point of each part's
+// segment has its time and flight in full instead, so that a segment is
+// packed where its part is analysed and merge only appends it. Each column
+// is chunked (addChunked), so that nothing moves while the tail is read.
+// unpack gives the points back exactly (a NaN stays a NaN).
 type packed struct {
 	dev, ffe, eng [][]float64
 	meta          [][]byte
+	n             int
+}
+
+// segment is one tail's points of one part, packed as they are analysed.
+type segment struct {
+	dev, ffe, eng []float64
+	meta          []byte
 	n             int
 	lastNs        int64
 	lastFlight    model.FlightID
@@ -31,47 +40,54 @@ const (
 	flagEngValue  = 1 << 2 // EngineDevPct is a number, kept in eng
 	flagSeconds   = 1 << 3 // the time's change is in whole seconds
 	manoeuvreBits = 4      // Manoeuvre, in bits 4 and 5
+	flagFull      = 1 << 6 // time and flight in full, not as changes
 )
 
-// packScratch is the columns of the points being packed, reused.
-type packScratch struct {
-	dev, ffe, eng []float64
-	meta          []byte
+// reset empties the segment, keeping its buffers.
+func (s *segment) reset() {
+	s.dev, s.ffe, s.eng, s.meta, s.n = s.dev[:0], s.ffe[:0], s.eng[:0], s.meta[:0], 0
 }
 
-// add packs pts after the points added before, with sc's buffers.
-func (pk *packed) add(pts []model.TrendPoint, sc *packScratch) {
-	sc.dev, sc.ffe, sc.eng, sc.meta = sc.dev[:0], sc.ffe[:0], sc.eng[:0], sc.meta[:0]
-	for i := range pts {
-		p := &pts[i]
-		flags := byte(p.Manoeuvre&3) << manoeuvreBits
-		if p.OutsideTable {
-			flags |= flagOutside
-		}
-		if p.HasEngine {
-			flags |= flagEngine
-		}
-		if !math.IsNaN(p.EngineDevPct) {
-			flags |= flagEngValue
-			sc.eng = append(sc.eng, p.EngineDevPct)
-		}
-		d := int64(uint64(p.UnixNano) - uint64(pk.lastNs)) // wraps: exact both ways
-		if d%1e9 == 0 {
-			flags |= flagSeconds
-			d /= 1e9
-		}
-		sc.meta = append(sc.meta, flags)
-		sc.meta = appendZigzag(sc.meta, d)
-		sc.meta = appendZigzag(sc.meta, int64(p.Flight)-int64(pk.lastFlight))
-		sc.dev, sc.ffe = append(sc.dev, p.DevPct), append(sc.ffe, p.FuelFlowExpected)
-		pk.lastNs, pk.lastFlight = p.UnixNano, p.Flight
+// add packs one point after those added before.
+func (s *segment) add(p *model.TrendPoint) {
+	flags := byte(p.Manoeuvre&3) << manoeuvreBits
+	if p.OutsideTable {
+		flags |= flagOutside
 	}
-	pk.dev, pk.ffe = addChunked(pk.dev, sc.dev), addChunked(pk.ffe, sc.ffe)
-	if len(sc.eng) > 0 {
-		pk.eng = addChunked(pk.eng, sc.eng)
+	if p.HasEngine {
+		flags |= flagEngine
 	}
-	pk.meta = addChunked(pk.meta, sc.meta)
-	pk.n += len(pts)
+	if !math.IsNaN(p.EngineDevPct) {
+		flags |= flagEngValue
+		s.eng = append(s.eng, p.EngineDevPct)
+	}
+	d, f := p.UnixNano, int64(p.Flight)
+	if s.n == 0 {
+		flags |= flagFull
+	} else {
+		d = int64(uint64(p.UnixNano) - uint64(s.lastNs)) // wraps: exact both ways
+		f -= int64(s.lastFlight)
+	}
+	if d%1e9 == 0 {
+		flags |= flagSeconds
+		d /= 1e9
+	}
+	s.meta = append(s.meta, flags)
+	s.meta = appendZigzag(s.meta, d)
+	s.meta = appendZigzag(s.meta, f)
+	s.dev, s.ffe = append(s.dev, p.DevPct), append(s.ffe, p.FuelFlowExpected)
+	s.lastNs, s.lastFlight = p.UnixNano, p.Flight
+	s.n++
+}
+
+// add appends a segment's points after those added before.
+func (pk *packed) add(s *segment) {
+	pk.dev, pk.ffe = addChunked(pk.dev, s.dev), addChunked(pk.ffe, s.ffe)
+	if len(s.eng) > 0 {
+		pk.eng = addChunked(pk.eng, s.eng)
+	}
+	pk.meta = addChunked(pk.meta, s.meta)
+	pk.n += s.n
 }
 
 // appendZigzag appends v as a zigzag varint (small changes of either sign
@@ -100,8 +116,12 @@ func (pk *packed) unpack(dst []model.TrendPoint) []model.TrendPoint {
 		if flags&flagSeconds != 0 {
 			d *= 1e9
 		}
-		ns = int64(uint64(ns) + uint64(d))
-		flight = model.FlightID(int64(flight) + zigzag(&meta))
+		f := zigzag(&meta)
+		if flags&flagFull != 0 {
+			ns, flight = d, model.FlightID(f)
+		} else {
+			ns, flight = int64(uint64(ns)+uint64(d)), model.FlightID(int64(flight)+f)
+		}
 		p := model.TrendPoint{UnixNano: ns, Flight: flight, DevPct: dev.next(), FuelFlowExpected: ffe.next(), EngineDevPct: math.NaN(),
 			OutsideTable: flags&flagOutside != 0, HasEngine: flags&flagEngine != 0, Manoeuvre: model.Manoeuvre(flags>>manoeuvreBits) & 3}
 		if flags&flagEngValue != 0 {

@@ -11,7 +11,7 @@ import (
 // Packed points come back exactly as they were given, in the order given,
 // whatever the times (whole seconds or not, backwards, far apart), flights,
 // flags and values (a NaN engine deviation stays NaN), and in whatever
-// parts they are added; they take well under a TrendPoint's 40 bytes.
+// segments they are added; they take well under a TrendPoint's 40 bytes.
 func TestPacked(t *testing.T) {
 	base := int64(1_750_000_000) * 1e9
 	rng := rand.New(rand.NewPCG(3, 4))
@@ -56,10 +56,14 @@ func TestPacked(t *testing.T) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
 			var pk packed
-			var sc packScratch
+			var seg segment
 			at := 0
 			for _, n := range tt.parts {
-				pk.add(tt.pts[at:at+n], &sc)
+				seg.reset()
+				for i := range tt.pts[at : at+n] {
+					seg.add(&tt.pts[at+i])
+				}
+				pk.add(&seg)
 				at += n
 			}
 			got := pk.unpack(nil)
@@ -84,7 +88,7 @@ func TestPacked(t *testing.T) {
 	// Size: a day of an export (whole-second times, few flights, three
 	// tails in four with fan speed) packs in about 26 bytes a point.
 	var pk packed
-	var sc packScratch
+	var seg segment
 	pts := make([]model.TrendPoint, 10000)
 	for i := range pts {
 		pts[i] = model.TrendPoint{UnixNano: base + int64(i)*1200e9, Flight: model.FlightID(i / 3 % 40), DevPct: 1, FuelFlowExpected: 0.7,
@@ -93,7 +97,10 @@ func TestPacked(t *testing.T) {
 			pts[i].HasEngine, pts[i].EngineDevPct = true, 0.5
 		}
 	}
-	pk.add(pts, &sc)
+	for i := range pts {
+		seg.add(&pts[i])
+	}
+	pk.add(&seg)
 	bytes := 0
 	for _, c := range pk.meta {
 		bytes += cap(c)

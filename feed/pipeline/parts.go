@@ -22,7 +22,7 @@ type partPoints struct {
 // tailPoints is one tail's points of a part.
 type tailPoints struct {
 	tail       string
-	pts        []model.TrendPoint
+	seg        segment             // its points, packed
 	det        []model.PointDetail // their details, unless DropPoints
 	refs       []int64             // where each point's row is, when they are kept (Result.refsOf)
 	lastFlight string              // the last point's flight and its id: most rows
@@ -78,11 +78,11 @@ func (r *Result) analyse(pp *partPoints, in *Input, recs []feed.Record, ref int6
 		if typ == nil {
 			continue // rejected by the reader's tail check
 		}
-		if len(tp.pts) == 0 || rec.Flight != tp.lastFlight {
+		if tp.seg.n == 0 || rec.Flight != tp.lastFlight {
 			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(r, rec.Flight)
 		}
 		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
-		tp.pts = append(tp.pts, pt)
+		tp.seg.add(&pt)
 		if !in.DropPoints {
 			tp.det = append(tp.det, model.NewDetail(snap, p))
 		}
@@ -103,7 +103,8 @@ func (pp *partPoints) tail(r *model.Roster, name string) *tailPoints {
 	pp.at[name] = i
 	if i < cap(pp.tails) {
 		pp.tails = pp.tails[:i+1]
-		pp.tails[i].tail, pp.tails[i].pts, pp.tails[i].det, pp.tails[i].refs = name, pp.tails[i].pts[:0], pp.tails[i].det[:0], pp.tails[i].refs[:0]
+		pp.tails[i].tail, pp.tails[i].det, pp.tails[i].refs = name, pp.tails[i].det[:0], pp.tails[i].refs[:0]
+		pp.tails[i].seg.reset()
 	} else {
 		pp.tails = append(pp.tails, tailPoints{tail: name})
 	}
@@ -135,7 +136,7 @@ func (r *Result) merge(pp *partPoints) {
 	defer r.mu.Unlock()
 	for i := range pp.tails {
 		tp := &pp.tails[i]
-		if len(tp.pts) == 0 { // its rows were all left out: no tail of the result
+		if tp.seg.n == 0 { // its rows were all left out: no tail of the result
 			continue
 		}
 		pk := r.packs[tp.tail]
@@ -143,7 +144,7 @@ func (r *Result) merge(pp *partPoints) {
 			pk = new(packed)
 			r.packs[tp.tail] = pk
 		}
-		pk.add(tp.pts, &r.packSc)
+		pk.add(&tp.seg)
 		if len(tp.det) > 0 {
 			r.detChunks[tp.tail] = addChunked(r.detChunks[tp.tail], tp.det)
 		}

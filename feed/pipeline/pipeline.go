@@ -94,7 +94,6 @@ type Result struct {
 
 	mu        sync.Mutex                       // merge: the parts of files read side by side
 	packs     map[string]*packed               // by tail, the points of each part, till assess joins them
-	packSc    packScratch                      // merge's buffers for packing them
 	detChunks map[string][][]model.PointDetail // their details
 	refChunks map[string][][]int64             // and where their rows are
 }
