@@ -8,24 +8,36 @@ import (
 	"testing"
 )
 
-// The soft memory limit is 48 MiB plus perByte × the input's bytes, and a
-// GOMEMLIMIT of the user's is left as it is.
+// The soft memory limit is perByte × the input's bytes, 128 MiB at
+// least, and a GOMEMLIMIT of the user's is left as it is.
 func TestSetMemoryLimit(t *testing.T) {
 	defer debug.SetMemoryLimit(math.MaxInt64)
-	path := filepath.Join(t.TempDir(), "s.csv")
-	if err := os.WriteFile(path, make([]byte, 10<<20), 0o644); err != nil {
-		t.Fatal(err)
+	dir := t.TempDir()
+	small, large := filepath.Join(dir, "s.csv"), filepath.Join(dir, "l.csv")
+	for path, size := range map[string]int64{small: 10 << 20, large: 1 << 30} {
+		f, err := os.Create(path)
+		if err == nil {
+			err = f.Truncate(size) // sparse: no gigabyte written
+		}
+		if err == nil {
+			err = f.Close()
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
 	}
-	in := &input{files: []string{path}}
+	gib := float64(1 << 30)
 	cases := []struct {
 		name    string
+		path    string
 		env     string
 		perByte float64
 		want    int64
 	}{
-		{"report", "", reportBytesPerByte, 48<<20 + 10<<20},
-		{"dashboard", "", dashBytesPerByte, 48<<20 + 16<<20},
-		{"the user's", "300MiB", reportBytesPerByte, 123 << 20}, // as set before: untouched
+		{"report, small input: the collector's own pacing", small, "", reportBytesPerByte, 128 << 20},
+		{"report, 1 GiB", large, "", reportBytesPerByte, int64(reportBytesPerByte * gib)},
+		{"dashboard, 1 GiB", large, "", dashBytesPerByte, int64(dashBytesPerByte * gib)},
+		{"the user's", large, "300MiB", reportBytesPerByte, 123 << 20}, // as set before: untouched
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -34,7 +46,7 @@ func TestSetMemoryLimit(t *testing.T) {
 				os.Unsetenv("GOMEMLIMIT")
 			}
 			debug.SetMemoryLimit(123 << 20)
-			setMemoryLimit(in, c.perByte)
+			setMemoryLimit(&input{files: []string{c.path}}, c.perByte)
 			if got := debug.SetMemoryLimit(-1); got != c.want {
 				t.Errorf("limit %d MiB, want %d MiB", got>>20, c.want>>20)
 			}

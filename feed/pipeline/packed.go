@@ -12,12 +12,12 @@ import (
 // kept as they are, the engine deviation only where it is a number (a
 // tail without fan speed has none), and the rest as bytes: per point one
 // byte of flags, the change of time from the point before (a zigzag
-// varint, in whole seconds where it is whole, as in most exports) and the
-// change of flight id (a zigzag varint); the first point of each part's
-// segment has its time and flight in full instead, so that a segment is
-// packed where its part is analysed and merge only appends it. Each column
-// is chunked (addChunked), so that nothing moves while the tail is read.
-// unpack gives the points back exactly (a NaN stays a NaN).
+// varint, in whole minutes or seconds where it is whole, as in most
+// exports) and the change of flight id (a zigzag varint); the first point
+// of each part's segment has its time and flight in full instead, so that
+// a segment is packed where its part is analysed and merge only appends
+// it. Each column is chunked (addChunked), so that nothing moves while the
+// tail is read. unpack gives the points back exactly (a NaN stays a NaN).
 type packed struct {
 	dev, ffe, eng [][]float64
 	meta          [][]byte
@@ -41,6 +41,7 @@ const (
 	flagSeconds   = 1 << 3 // the time's change is in whole seconds
 	manoeuvreBits = 4      // Manoeuvre, in bits 4 and 5
 	flagFull      = 1 << 6 // time and flight in full, not as changes
+	flagMinutes   = 1 << 7 // the time's change is in whole minutes
 )
 
 // reset empties the segment, keeping its buffers.
@@ -68,7 +69,11 @@ func (s *segment) add(p *model.TrendPoint) {
 		d = int64(uint64(p.UnixNano) - uint64(s.lastNs)) // wraps: exact both ways
 		f -= int64(s.lastFlight)
 	}
-	if d%1e9 == 0 {
+	switch {
+	case d%60e9 == 0:
+		flags |= flagMinutes
+		d /= 60e9
+	case d%1e9 == 0:
 		flags |= flagSeconds
 		d /= 1e9
 	}
@@ -113,7 +118,10 @@ func (pk *packed) unpack(dst []model.TrendPoint) []model.TrendPoint {
 	for range pk.n {
 		flags := meta.next()
 		d := zigzag(&meta)
-		if flags&flagSeconds != 0 {
+		switch {
+		case flags&flagMinutes != 0:
+			d *= 60e9
+		case flags&flagSeconds != 0:
 			d *= 1e9
 		}
 		f := zigzag(&meta)
