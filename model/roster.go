@@ -175,14 +175,20 @@ func (r *Roster) Tail(tail string) TailRoster {
 
 // Analyze is Roster.Analyze for the tail.
 func (tr *TailRoster) Analyze(t time.Time, s Snapshot) (Point, Snapshot, *Type, string) {
+	return tr.AnalyzeWith(t, s, nil)
+}
+
+// AnalyzeWith is Analyze with the air of the levels l remembers (nil:
+// none).
+func (tr *TailRoster) AnalyzeWith(t time.Time, s Snapshot, l *Levels) (Point, Snapshot, *Type, string) {
 	if tr.single != nil {
-		return Analyze(tr.single, s), s, tr.single, ""
+		return AnalyzeWith(tr.single, s, l), s, tr.single, ""
 	}
 	i, why := entryAt(tr.tail, tr.entries, t)
 	if why != "" {
 		return Point{}, s, nil, why
 	}
-	return analyzeCorrected(tr.types[i], tr.entries[i].FuelFlowCorrectionPct, s)
+	return analyzeCorrected(tr.types[i], tr.entries[i].FuelFlowCorrectionPct, s, l)
 }
 
 // Changes returns the type changes of a tail (a retrofit, a conversion): the
@@ -212,15 +218,15 @@ func (r *Roster) Analyze(tail string, t time.Time, s Snapshot) (Point, Snapshot,
 	if typ == nil {
 		return Point{}, s, nil, why
 	}
-	return analyzeCorrected(typ, e.FuelFlowCorrectionPct, s)
+	return analyzeCorrected(typ, e.FuelFlowCorrectionPct, s, nil)
 }
 
 // analyzeCorrected analyses s with typ, its fuel flow corrected by pct.
-func analyzeCorrected(typ *Type, pct float64, s Snapshot) (Point, Snapshot, *Type, string) {
+func analyzeCorrected(typ *Type, pct float64, s Snapshot, l *Levels) (Point, Snapshot, *Type, string) {
 	if pct != 0 {
 		s.FuelFlow *= 1 + pct/100
 	}
-	return Analyze(typ, s), s, typ, ""
+	return AnalyzeWith(typ, s, l), s, typ, ""
 }
 
 // Label names the roster for a header: the type's name for a single type,

@@ -16,7 +16,12 @@ type Snapshot struct {
 }
 
 // LoadFactor is n = 1/cos φ in a level turn at bank φ (rad).
-func LoadFactor(bank float64) float64 { return 1 / math.Cos(bank) }
+func LoadFactor(bank float64) float64 {
+	if bank == 0 { // wings level, most snapshots: 1/cos 0 without the cosine
+		return 1
+	}
+	return 1 / math.Cos(bank)
+}
 
 // LiftCoefficient is CL = n W g0 / (q S) for weight w (kg), dynamic pressure
 // q (Pa) and wing area s (m²).
@@ -77,8 +82,13 @@ type Point struct {
 // Excess drag is taken as lift-independent: parasite measured =
 // CD_measured − k CL² − ΔCD_wave. The function does not validate its input;
 // package feed rejects impossible snapshots before they get here.
-func Analyze(t *Type, s Snapshot) Point {
-	air := AirAt(s.Altitude, s.SAT)
+func Analyze(t *Type, s Snapshot) Point { return AnalyzeWith(t, s, nil) }
+
+// AnalyzeWith is Analyze with the standard atmosphere of the levels l
+// remembers (nil: none), the same values.
+func AnalyzeWith(t *Type, s Snapshot, l *Levels) Point {
+	tISA, pressure := l.ISA(s.Altitude)
+	air := Air{Altitude: s.Altitude, T: s.SAT, P: pressure, TISA: tISA}
 	var p Point
 	p.Delta = air.Delta()
 	p.Theta = air.Theta()

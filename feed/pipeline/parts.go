@@ -16,6 +16,7 @@ type partPoints struct {
 	tails       []tailPoints
 	at          map[string]int            // tail → its place in tails
 	flightAt    map[string]model.FlightID // the part's flights and their ids in the result's table
+	levels      model.Levels              // the air at the part's flight levels
 	first, last int64                     // ns; first > last: no point
 }
 
@@ -74,7 +75,7 @@ func (r *Result) analyse(pp *partPoints, in *Input, recs []feed.Record, ref int6
 			continue
 		}
 		tp := pp.tail(r.Roster, rec.Tail)
-		p, snap, typ, _ := tp.roster.Analyze(rec.Time, rec.Snap)
+		p, snap, typ, _ := tp.roster.AnalyzeWith(rec.Time, rec.Snap, &pp.levels)
 		if typ == nil {
 			continue // rejected by the reader's tail check
 		}
