@@ -175,20 +175,27 @@ func (r *Roster) Tail(tail string) TailRoster {
 
 // Analyze is Roster.Analyze for the tail.
 func (tr *TailRoster) Analyze(t time.Time, s Snapshot) (Point, Snapshot, *Type, string) {
-	return tr.AnalyzeWith(t, s, nil)
+	var p Point
+	typ, why := tr.AnalyzeInto(&p, t, &s, nil)
+	return p, s, typ, why
 }
 
-// AnalyzeWith is Analyze with the air of the levels l remembers (nil:
-// none).
-func (tr *TailRoster) AnalyzeWith(t time.Time, s Snapshot, l *Levels) (Point, Snapshot, *Type, string) {
-	if tr.single != nil {
-		return AnalyzeWith(tr.single, s, l), s, tr.single, ""
+// AnalyzeInto is Analyze in place (AnalyzeInto of the package): s is
+// corrected as Analyze corrects it, and the point is written into p, with
+// the air of the levels l remembers (nil: none).
+func (tr *TailRoster) AnalyzeInto(p *Point, t time.Time, s *Snapshot, l *Levels) (*Type, string) {
+	typ := tr.single
+	if typ == nil {
+		i, why := entryAt(tr.tail, tr.entries, t)
+		if why != "" {
+			*p = Point{}
+			return nil, why
+		}
+		typ = tr.types[i]
+		correct(s, tr.entries[i].FuelFlowCorrectionPct)
 	}
-	i, why := entryAt(tr.tail, tr.entries, t)
-	if why != "" {
-		return Point{}, s, nil, why
-	}
-	return analyzeCorrected(tr.types[i], tr.entries[i].FuelFlowCorrectionPct, s, l)
+	AnalyzeInto(p, typ, s, l)
+	return typ, ""
 }
 
 // Changes returns the type changes of a tail (a retrofit, a conversion): the
@@ -218,15 +225,15 @@ func (r *Roster) Analyze(tail string, t time.Time, s Snapshot) (Point, Snapshot,
 	if typ == nil {
 		return Point{}, s, nil, why
 	}
-	return analyzeCorrected(typ, e.FuelFlowCorrectionPct, s, nil)
+	correct(&s, e.FuelFlowCorrectionPct)
+	return Analyze(typ, s), s, typ, ""
 }
 
-// analyzeCorrected analyses s with typ, its fuel flow corrected by pct.
-func analyzeCorrected(typ *Type, pct float64, s Snapshot, l *Levels) (Point, Snapshot, *Type, string) {
+// correct corrects the fuel flow of s by the meter bias pct.
+func correct(s *Snapshot, pct float64) {
 	if pct != 0 {
 		s.FuelFlow *= 1 + pct/100
 	}
-	return AnalyzeWith(typ, s, l), s, typ, ""
 }
 
 // Label names the roster for a header: the type's name for a single type,

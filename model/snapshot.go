@@ -82,14 +82,19 @@ type Point struct {
 // Excess drag is taken as lift-independent: parasite measured =
 // CD_measured − k CL² − ΔCD_wave. The function does not validate its input;
 // package feed rejects impossible snapshots before they get here.
-func Analyze(t *Type, s Snapshot) Point { return AnalyzeWith(t, s, nil) }
+func Analyze(t *Type, s Snapshot) Point {
+	var p Point
+	AnalyzeInto(&p, t, &s, nil)
+	return p
+}
 
-// AnalyzeWith is Analyze with the standard atmosphere of the levels l
-// remembers (nil: none), the same values.
-func AnalyzeWith(t *Type, s Snapshot, l *Levels) Point {
+// AnalyzeInto is Analyze writing the point into p, with the standard
+// atmosphere of the levels l remembers (nil: none): the same values, for
+// a caller that analyses millions of snapshots (a Point is 200 bytes).
+func AnalyzeInto(p *Point, t *Type, s *Snapshot, l *Levels) {
 	tISA, pressure := l.ISA(s.Altitude)
 	air := Air{Altitude: s.Altitude, T: s.SAT, P: pressure, TISA: tISA}
-	var p Point
+	*p = Point{}
 	p.Delta = air.Delta()
 	p.Theta = air.Theta()
 	p.ISADev = air.ISADev()
@@ -129,5 +134,4 @@ func AnalyzeWith(t *Type, s Snapshot, l *Levels) Point {
 
 	p.FuelFlowExpected = p.TSFC * (p.CDBaseline*qs + energy)
 	p.FuelFlowDevPct = 100 * (s.FuelFlow - p.FuelFlowExpected) / p.FuelFlowExpected
-	return p
 }

@@ -136,10 +136,10 @@ func TestThrustFromFanSpeed(t *testing.T) {
 		t.Errorf("outside the table: from N1 %v, outside %v, engine deviation %g", po.ThrustFromN1, po.OutsideThrustTable, po.EngineDevPct)
 	}
 	c := DefaultTrendConfig()
-	if why := c.Usable(c.NewPoint(day0, 0, out, po)); why != ExcludeThrustTable {
+	if why := c.Usable(c.NewPoint(day0, 0, &out, &po)); why != ExcludeThrustTable {
 		t.Errorf("outside the table: usable reason %q, want %q", why, ExcludeThrustTable)
 	}
-	if why := c.Usable(c.NewPoint(day0, 0, s, p)); why != "" {
+	if why := c.Usable(c.NewPoint(day0, 0, &s, &p)); why != "" {
 		t.Errorf("inside the table: left out for %q", why)
 	}
 }

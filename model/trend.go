@@ -50,7 +50,7 @@ type PointDetail struct {
 }
 
 // NewDetail makes the detail of an analysed snapshot s.
-func NewDetail(s Snapshot, p Point) PointDetail {
+func NewDetail(s *Snapshot, p *Point) PointDetail {
 	return PointDetail{CL: float32(p.CL), CDLessWave: float32(p.CDMeasured - p.CDWave),
 		Weight: float32(s.Weight), Altitude: float32(s.Altitude), Mach: float32(s.Mach), ISADev: float32(p.ISADev)}
 }
@@ -108,7 +108,7 @@ func AppendEngineSeries(dst, pts []TrendPoint) []TrendPoint {
 // NewPoint makes the trend's point of an analysed snapshot s taken at time
 // t in flight f, judging its manoeuvre against c's limits (Usable must be
 // asked with the same limits).
-func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s Snapshot, p Point) TrendPoint {
+func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s *Snapshot, p *Point) TrendPoint {
 	m := ManoeuvreNone
 	switch {
 	case math.Abs(s.Bank) > c.MaxBank:

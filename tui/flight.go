@@ -204,7 +204,7 @@ func (s *flightScreen) seek(n int) {
 		s.points = append(s.points, p)
 		if why == "" {
 			// the flight does not decide whether a point is usable
-			why = s.cfg.Usable(s.cfg.NewPoint(r.Time, 0, snap, p))
+			why = s.cfg.Usable(s.cfg.NewPoint(r.Time, 0, &snap, &p))
 		}
 		s.left = append(s.left, why)
 	}

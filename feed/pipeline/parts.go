@@ -69,23 +69,25 @@ func (s *partSink) Done() func()           { return func() { s.r.merge(s.pp) } }
 // fleet file's meter bias. ref is the file's index, for where each point's
 // row is (−1: not kept).
 func (r *Result) analyse(pp *partPoints, in *Input, recs []feed.Record, ref int64) {
+	var p model.Point
 	for i := range recs {
 		rec := &recs[i]
 		if in.Filter != nil && !in.Filter(*rec) {
 			continue
 		}
 		tp := pp.tail(r.Roster, rec.Tail)
-		p, snap, typ, _ := tp.roster.AnalyzeWith(rec.Time, rec.Snap, &pp.levels)
+		snap := rec.Snap
+		typ, _ := tp.roster.AnalyzeInto(&p, rec.Time, &snap, &pp.levels)
 		if typ == nil {
 			continue // rejected by the reader's tail check
 		}
 		if tp.seg.n == 0 || rec.Flight != tp.lastFlight {
 			tp.lastFlight, tp.lastID = rec.Flight, pp.flight(r, rec.Flight)
 		}
-		pt := r.Config.NewPoint(rec.Time, tp.lastID, snap, p)
+		pt := r.Config.NewPoint(rec.Time, tp.lastID, &snap, &p)
 		tp.seg.add(&pt)
 		if !in.DropPoints {
-			tp.det = append(tp.det, model.NewDetail(snap, p))
+			tp.det = append(tp.det, model.NewDetail(&snap, &p))
 		}
 		if ref >= 0 {
 			tp.refs = append(tp.refs, ref<<refBits|(rec.Offset+1))

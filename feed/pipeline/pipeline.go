@@ -368,10 +368,10 @@ func (r *Result) add(in Input, rec feed.Record) {
 	if typ == nil {
 		return // rejected by the reader's tail check
 	}
-	tp := r.Config.NewPoint(rec.Time, r.names.ID(rec.Flight), snap, p)
+	tp := r.Config.NewPoint(rec.Time, r.names.ID(rec.Flight), &snap, &p)
 	r.Points[rec.Tail] = append(r.Points[rec.Tail], tp)
 	if !in.DropPoints {
-		r.details[rec.Tail] = append(r.details[rec.Tail], model.NewDetail(snap, p))
+		r.details[rec.Tail] = append(r.details[rec.Tail], model.NewDetail(&snap, &p))
 	}
 	if r.Records != nil {
 		r.Records[rec.Tail] = append(r.Records[rec.Tail], rec)
