@@ -4,6 +4,7 @@ import (
 	"math"
 	"sync"
 	"time"
+	"unsafe"
 
 	"dragdeck/feed"
 	"dragdeck/model"
@@ -171,10 +172,12 @@ func (r *Result) merge(pp *partPoints) {
 
 // addChunked appends pts to a tail's chunks: the last chunk takes what it
 // has room for, and a new chunk, of an eighth of the tail's points so far
-// (64 at least), the rest. A tail's points then never move while it is
-// read, and the room to spare is at most an eighth of them (a slice grown
-// by append moves them at each growth and keeps up to a quarter spare);
-// join puts them in one slice when the tail is assessed.
+// (4 KB at least), the rest. A tail's points then never move while it is
+// read, and the room to spare is at most an eighth of them or one small
+// chunk (a slice grown by append moves them at each growth and keeps up to
+// a quarter spare); join puts them in one slice when the tail is assessed.
+// The chunks are few (a dozen for a tail's year), as each is one more
+// object for the garbage collector to mark while a fleet is held.
 func addChunked[T any](cs [][]T, pts []T) [][]T {
 	for len(pts) > 0 {
 		if k := len(cs) - 1; k >= 0 && len(cs[k]) < cap(cs[k]) {
@@ -186,10 +189,13 @@ func addChunked[T any](cs [][]T, pts []T) [][]T {
 		for _, c := range cs {
 			total += len(c)
 		}
-		cs = append(cs, make([]T, 0, max(64, total/8, len(pts))))
+		cs = append(cs, make([]T, 0, max(minChunk/int(unsafe.Sizeof(pts[0])), total/8, len(pts))))
 	}
 	return cs
 }
+
+// minChunk is the size of a tail's first chunk, in bytes.
+const minChunk = 4 << 10
 
 // join returns a tail's points, their details and where their rows are
 // (nil when not kept): those added one at a time (add) and those packed

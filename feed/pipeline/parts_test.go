@@ -3,12 +3,13 @@ package pipeline
 import (
 	"slices"
 	"testing"
+	"unsafe"
 
 	"dragdeck/model"
 )
 
 // addChunked keeps a tail's points in order, and the room it keeps spare
-// is at most an eighth of the points (or one chunk of 64), whatever the
+// is at most an eighth of the points (or one chunk of 4 KB), whatever the
 // sizes of the parts they come in; joinChunks gives them back in one slice.
 func TestAddChunked(t *testing.T) {
 	cases := []struct {
@@ -37,7 +38,7 @@ func TestAddChunked(t *testing.T) {
 				spare += cap(ch) - len(ch)
 				total += len(ch)
 			}
-			if total != int(next) || spare > max(64, total/8) {
+			if total != int(next) || spare > max(minChunk/int(unsafe.Sizeof(model.TrendPoint{})), total/8) {
 				t.Errorf("%d chunks hold %d points of %d, %d spare", len(cs), total, next, spare)
 			}
 			got := joinChunks(nil, cs)
