@@ -148,7 +148,7 @@ func theilSenWindow(x, y []float64, N, lo, hi int, ar *arena) (Slope, bool) {
 	if ra >= 0 {
 		a = orderStat(sample[:min(rb, len(sample))], ra)
 	}
-	want := int(float64(N)*float64(rb-ra)/ms) + 64
+	want := int(1.25*float64(N)*float64(rb-ra)/ms) + 256 // the expected count is passed half the time
 	below := 0
 	kept := ar.floats(want)[:0] // grows by append beyond want, off the arena
 	for i := 0; i < n; i++ {
