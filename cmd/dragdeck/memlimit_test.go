@@ -9,9 +9,11 @@ import (
 )
 
 // The soft memory limit is perByte × the input's bytes, 128 MiB at
-// least, and a GOMEMLIMIT of the user's is left as it is.
+// least, with GOGC 300 under it; a GOMEMLIMIT of the user's is left as it
+// is, and the function returned puts back what was set before.
 func TestSetMemoryLimit(t *testing.T) {
 	defer debug.SetMemoryLimit(math.MaxInt64)
+	defer debug.SetGCPercent(100)
 	dir := t.TempDir()
 	small, large := filepath.Join(dir, "s.csv"), filepath.Join(dir, "l.csv")
 	for path, size := range map[string]int64{small: 10 << 20, large: 1 << 30} {
@@ -46,9 +48,22 @@ func TestSetMemoryLimit(t *testing.T) {
 				os.Unsetenv("GOMEMLIMIT")
 			}
 			debug.SetMemoryLimit(123 << 20)
-			setMemoryLimit(&input{files: []string{c.path}}, c.perByte)
+			debug.SetGCPercent(100)
+			restore := setMemoryLimit(&input{files: []string{c.path}}, c.perByte)
 			if got := debug.SetMemoryLimit(-1); got != c.want {
 				t.Errorf("limit %d MiB, want %d MiB", got>>20, c.want>>20)
+			}
+			wantPercent := gcPercent
+			if c.env != "" || os.Getenv("GOGC") != "" {
+				wantPercent = 100 // the user's limit: the pacing left as it is
+			}
+			if got := debug.SetGCPercent(-1); got != wantPercent {
+				t.Errorf("GOGC %d, want %d", got, wantPercent)
+			}
+			debug.SetGCPercent(wantPercent)
+			restore()
+			if limit, percent := debug.SetMemoryLimit(-1), debug.SetGCPercent(100); limit != 123<<20 || percent != 100 {
+				t.Errorf("restored: limit %d MiB, GOGC %d; want 123 MiB, 100", limit>>20, percent)
 			}
 		})
 	}

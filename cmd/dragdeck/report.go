@@ -6,7 +6,6 @@ import (
 	"io"
 	"math"
 	"os"
-	"runtime/debug"
 	"sort"
 	"strconv"
 	"strings"
@@ -294,8 +293,7 @@ tail's work items in progress are shown.`,
 		}
 	}
 	pin.DropPoints = true // a report shows trends and flights, never points
-	setMemoryLimit(in, reportBytesPerByte)
-	defer debug.SetMemoryLimit(math.MaxInt64) // the next command of a test runs unlimited
+	defer setMemoryLimit(in, reportBytesPerByte)() // put back for the next command of a test
 	r := pipeline.Run(pin)
 	if err := sourceFailed(r); err != nil {
 		return err

@@ -3,11 +3,9 @@ package main
 import (
 	"context"
 	"io"
-	"math"
 	"os"
 	"path/filepath"
 	"runtime"
-	"runtime/debug"
 	"strconv"
 	"strings"
 	"sync/atomic"
@@ -104,8 +102,7 @@ func BenchmarkImport1M(b *testing.B) {
 func BenchmarkDashboardLoad1M(b *testing.B) {
 	path := benchSnapshots(b)
 	in := &input{roster: model.SingleType(feed.DemoType()), files: []string{path}}
-	setMemoryLimit(in, dashBytesPerByte)
-	defer debug.SetMemoryLimit(math.MaxInt64)
+	defer setMemoryLimit(in, dashBytesPerByte)()
 	var heap uint64
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
