@@ -292,7 +292,7 @@ tail's work items in progress are shown.`,
 			fmt.Fprintln(rejOut, r)
 		}
 	}
-	pin.DropPoints = true // a report shows trends and flights, never points
+	pin.DropPoints = true                          // a report shows trends and flights, never points
 	defer setMemoryLimit(in, reportBytesPerByte)() // put back for the next command of a test
 	r := pipeline.Run(pin)
 	if err := sourceFailed(r); err != nil {
