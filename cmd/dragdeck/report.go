@@ -292,8 +292,10 @@ tail's work items in progress are shown.`,
 			fmt.Fprintln(rejOut, r)
 		}
 	}
-	pin.DropPoints = true                          // a report shows trends and flights, never points
-	defer setMemoryLimit(in, reportBytesPerByte)() // put back for the next command of a test
+	// A report shows trends and flights, never points; the memory limit is
+	// put back for the next command of a test.
+	pin.DropPoints = true
+	defer setMemoryLimit(in, reportBytesPerByte)()
 	r := pipeline.Run(pin)
 	if err := sourceFailed(r); err != nil {
 		return err
