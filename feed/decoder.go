@@ -31,10 +31,8 @@ type Decoder struct {
 
 	fields  [][]byte
 	scratch []byte
-	tails   map[string]string // interned tail and flight names
-	flights map[string]string
-	// the ids of the row before: a recording repeats them on every row
-	lastTail, lastFlight lastID
+	// the interned tail and flight names
+	tails, flights idTable
 	// the day of the row before: its rows share it too
 	day dayCache
 
@@ -61,7 +59,7 @@ type TailCheck func(tail string, t time.Time) string
 
 // NewDecoder returns a decoder for the file called name (used in errors).
 func NewDecoder(name string) *Decoder {
-	return &Decoder{name: name, first: true, tails: map[string]string{}, flights: map[string]string{}}
+	return &Decoder{name: name, first: true}
 }
 
 // Stats returns the rows counted so far.
@@ -317,14 +315,14 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 		return d.reject(n, h.name[colTail], ErrEmpty, "empty")
 	}
 	var why string
-	if rec.Tail, why = d.lastTail.get(d.tails, tail); why != "" {
+	if rec.Tail, why = d.tails.intern(tail); why != "" {
 		return d.reject(n, h.name[colTail], ErrID, why)
 	}
 	if h.idx[colFlight] >= 0 {
-		if len(d.flights) > 1<<16 {
-			clear(d.flights)
+		if d.flights.n > 1<<16 { // a file of unique flight ids: memory stays flat
+			d.flights.reset()
 		}
-		if rec.Flight, why = d.lastFlight.get(d.flights, f(colFlight)); why != "" {
+		if rec.Flight, why = d.flights.intern(f(colFlight)); why != "" {
 			return d.reject(n, h.name[colFlight], ErrID, why)
 		}
 	}
@@ -411,56 +409,4 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 var fieldColumn = map[Field]column{
 	FieldWeight: colWeight, FieldAltitude: colAlt, FieldMach: colMach, FieldFuelFlow: colFuelFlow,
 	FieldSAT: colTemp, FieldBank: colBank, FieldVS: colVS, FieldAccel: colAccel, FieldN1: colN1,
-}
-
-// intern returns the one shared string for b.
-// lastID is the id of the row before, to skip the map when it repeats.
-type lastID struct {
-	s     string
-	cache *[idSlots]string // ids seen lately, by a hash of their bytes
-}
-
-// idSlots is the size of an id cache: the tails of a fleet of thousands
-// (3,000 tails in 1,024 slots missed one row in two), and the flights of a
-// few days, mostly each in a slot of their own.
-const idSlots = 4096
-
-// get is internID, or the id of the row before when b is that again.
-func (l *lastID) get(m map[string]string, b []byte) (string, string) {
-	if l.s != "" && l.s == string(b) {
-		return l.s, ""
-	}
-	// The rows of a fleet export interleave its tails: a slot found by a
-	// hash of the bytes (FNV-1a) is cheaper than the map's lookup.
-	h := uint32(2166136261)
-	for _, c := range b {
-		h = (h ^ uint32(c)) * 16777619
-	}
-	if l.cache == nil {
-		l.cache = new([idSlots]string)
-	}
-	slot := &l.cache[h%idSlots]
-	if *slot != "" && *slot == string(b) {
-		l.s = *slot
-		return l.s, ""
-	}
-	s, why := internID(m, b)
-	if why == "" {
-		l.s, *slot = s, s
-	}
-	return s, why
-}
-
-// internID returns the one copy of the id b kept in m, judging b (badID)
-// only the first time it is seen; why says why it cannot be used.
-func internID(m map[string]string, b []byte) (s, why string) {
-	if s, ok := m[string(b)]; ok {
-		return s, ""
-	}
-	if why := badID(b); why != "" {
-		return "", why
-	}
-	s = string(b)
-	m[s] = s
-	return s, ""
 }
