@@ -41,7 +41,7 @@ func TestPacked(t *testing.T) {
 	}
 	edge := []model.TrendPoint{
 		{UnixNano: math.MinInt64 + 1, DevPct: math.Inf(1), Flight: math.MaxUint32, EngineDevPct: math.NaN()},
-		{UnixNano: math.MaxInt64, DevPct: math.NaN(), FuelFlowExpected: -0.0, EngineDevPct: 5, HasEngine: true, Manoeuvre: model.ManoeuvreAccel},
+		{UnixNano: math.MaxInt64, DevPct: math.NaN(), FuelFlowExpected: math.Copysign(0, -1), EngineDevPct: 5, HasEngine: true, Manoeuvre: model.ManoeuvreAccel},
 		{UnixNano: 0, Flight: 0, EngineDevPct: math.Inf(-1)},
 	}
 	tests := []struct {
