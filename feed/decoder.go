@@ -79,6 +79,14 @@ func (d *Decoder) Unknown() []string {
 // nothing for a comment, a blank line or the header. The decoder does not
 // keep line after it returns.
 func (d *Decoder) Line(line []byte, n int) (rec Record, ok bool, err error) {
+	ok, err = d.lineInto(&rec, line, n)
+	return rec, ok, err
+}
+
+// lineInto is Line writing the record into rec (a slot of the caller's, so
+// that a record of about 180 bytes is not copied on its way out); rec is
+// unspecified unless ok.
+func (d *Decoder) lineInto(rec *Record, line []byte, n int) (ok bool, err error) {
 	if d.first {
 		line = bytes.TrimPrefix(line, utf8BOM)
 		d.first = false
@@ -87,9 +95,9 @@ func (d *Decoder) Line(line []byte, n int) (rec Record, ok bool, err error) {
 		line = line[:k-1]
 	}
 	if len(line) > 0 && line[0] == '#' || len(bytes.TrimSpace(line)) == 0 {
-		return Record{}, false, nil
+		return false, nil
 	}
-	return d.record(line, n)
+	return d.record(rec, line, n)
 }
 
 // End finishes the input: a file with no header is a *FileError.
@@ -105,51 +113,51 @@ func (d *Decoder) TooLong(n int) error {
 	if d.hdr == nil {
 		return &FileError{File: d.name, Line: n, Reason: fmt.Sprintf("header line longer than %d MiB", maxLine>>20)}
 	}
-	_, _, err := d.reject(n, "row", ErrTooLong, fmt.Sprintf("line longer than %d MiB", maxLine>>20))
+	_, err := d.reject(n, "row", ErrTooLong, fmt.Sprintf("line longer than %d MiB", maxLine>>20))
 	return err
 }
 
-func (d *Decoder) reject(n int, col string, kind error, reason string) (Record, bool, error) {
+func (d *Decoder) reject(n int, col string, kind error, reason string) (bool, error) {
 	d.stats.Read++
 	d.stats.Rejected++
-	return Record{}, false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Err: kind}
+	return false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Err: kind}
 }
 
 // record handles one complete CSV record that starts on line n.
-func (d *Decoder) record(rec []byte, n int) (Record, bool, error) {
+func (d *Decoder) record(out *Record, rec []byte, n int) (bool, error) {
 	if msg, bad := d.split(rec); msg != "" {
 		if d.hdr == nil {
-			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "header: " + msg}
+			return false, &FileError{File: d.name, Line: n, Reason: "header: " + msg}
 		}
 		return d.reject(n, d.hdr.fieldName(bad), ErrQuote, msg)
 	}
 	if d.hdr == nil {
 		if len(d.fields) == 1 && bytes.Count(rec, []byte{';'}) > 0 {
-			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "the header is separated by semicolons, not commas " +
+			return false, &FileError{File: d.name, Line: n, Reason: "the header is separated by semicolons, not commas " +
 				"(a spreadsheet export with decimal commas?): save the file as comma-separated with decimal points"}
 		}
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
-			return Record{}, false, &FileError{File: d.name, Line: n, Reason: msg, Events: msg == eventsHeader}
+			return false, &FileError{File: d.name, Line: n, Reason: msg, Events: msg == eventsHeader}
 		}
 		d.hdr = h
-		return Record{}, false, nil
+		return false, nil
 	}
 	if d.hdr.idx[colTime] < len(d.fields) && !isDigit(d.fields[d.hdr.idx[colTime]]) && isHeader(d.fields) {
 		if d.stopAtHeader {
-			return Record{}, false, errHeaderInPart
+			return false, errHeaderInPart
 		}
 		h, msg := parseHeader(d.fields)
 		if msg != "" {
-			return Record{}, false, &FileError{File: d.name, Line: n, Reason: "a second header line that cannot be used: " + msg}
+			return false, &FileError{File: d.name, Line: n, Reason: "a second header line that cannot be used: " + msg}
 		}
 		if d.Notice != nil {
 			d.Notice(fmt.Sprintf("%s:%d: a new header line; the rows after it are read with its columns (%s)", d.name, n, h.layout()))
 		}
 		d.hdr = h
-		return Record{}, false, nil
+		return false, nil
 	}
-	return d.row(n)
+	return d.row(out, n)
 }
 
 // isDigit reports whether b starts with a digit, as every time does (so
@@ -286,14 +294,14 @@ func (d *Decoder) split(rec []byte) (string, int) {
 }
 
 // row converts the fields of data line n into a record.
-func (d *Decoder) row(n int) (Record, bool, error) {
+func (d *Decoder) row(rec *Record, n int) (bool, error) {
 	h := d.hdr
 	if len(d.fields) != h.n {
 		return d.reject(n, "row", ErrFields, fmt.Sprintf("%d fields, the header has %d", len(d.fields), h.n))
 	}
 	f := func(c column) []byte { return d.fields[h.idx[c]] }
 
-	rec := Record{File: d.name, Line: n}
+	*rec = Record{File: d.name, Line: n}
 	tf := f(colTime)
 	if len(tf) == 0 {
 		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
@@ -402,7 +410,7 @@ func (d *Decoder) row(n int) (Record, bool, error) {
 	}
 	d.stats.Read++
 	d.stats.Accepted++
-	return rec, true, nil
+	return true, nil
 }
 
 // fieldColumn maps a validated field to its column.

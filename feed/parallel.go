@@ -331,20 +331,38 @@ func decodePart(f *os.File, path string, hdr *header, opt ReadOptions, p *part, 
 	pr.d.stats = Stats{} // counted per part
 	r := &Reader{d: pr.d, br: pr.br}
 	r.offBase = p.start
-	accept := func(rec Record) { p.recs = append(p.recs, rec) }
+	// Each record is decoded into the next slot of the buffer it goes in
+	// (the part's records, or the batch for the sink), not copied there.
+	buf := &p.recs
 	if p.sink != nil {
 		if pr.batch == nil {
 			pr.batch = make([]Record, 0, sinkBatch)
 		}
-		accept = func(rec Record) {
-			pr.batch = append(pr.batch, rec)
-			if len(pr.batch) == sinkBatch {
-				p.sink.Add(pr.batch)
-				pr.batch = pr.batch[:0]
+		buf = &pr.batch
+	}
+	used := true // the last slot holds an accepted record, or there is none
+	slot := func() *Record {
+		if used {
+			if b := *buf; len(b) < cap(b) {
+				*buf = b[:len(b)+1] // the decoder writes every field of an accepted record
+			} else {
+				*buf = append(b, Record{})
 			}
+			used = false
+		}
+		return &(*buf)[len(*buf)-1]
+	}
+	accept := func() {
+		used = true
+		if p.sink != nil && len(pr.batch) == sinkBatch {
+			p.sink.Add(pr.batch)
+			pr.batch = pr.batch[:0]
 		}
 	}
-	err := r.each(accept, func(e *RowError) { p.rejects = append(p.rejects, e) })
+	err := r.eachInto(slot, accept, func(e *RowError) { p.rejects = append(p.rejects, e) })
+	if !used {
+		*buf = (*buf)[:len(*buf)-1] // the slot that the end of the part left empty
+	}
 	if p.sink != nil && len(pr.batch) > 0 {
 		p.sink.Add(pr.batch)
 	}

@@ -39,30 +39,40 @@ func (r *Reader) SetTailCheck(check TailCheck) { r.d.CheckTail = check }
 // (call Next again to go on). At the end it returns io.EOF; a *FileError or
 // an I/O error is final.
 func (r *Reader) Next() (Record, error) {
+	var rec Record
+	if err := r.nextInto(&rec); err != nil {
+		return Record{}, err
+	}
+	return rec, nil
+}
+
+// nextInto is Next writing the record into rec (a slot of the caller's);
+// rec is unspecified unless the error is nil.
+func (r *Reader) nextInto(rec *Record) error {
 	for r.done == nil {
 		line, err := r.readLine()
 		switch {
 		case err == io.EOF:
 			r.done = io.EOF
 			if e := r.d.End(); e != nil {
-				return Record{}, r.keep(e)
+				return r.keep(e)
 			}
 		case err != nil:
 			r.done = err
 		case line == nil: // longer than maxLine, skipped
-			return Record{}, r.keep(r.d.TooLong(r.line + r.base))
+			return r.keep(r.d.TooLong(r.line + r.base))
 		default:
-			rec, ok, err := r.d.Line(line, r.line+r.base)
+			ok, err := r.d.lineInto(rec, line, r.line+r.base)
 			if ok {
 				rec.Offset = r.offBase + r.start
-				return rec, nil
+				return nil
 			}
 			if err != nil {
-				return Record{}, r.keep(err)
+				return r.keep(err)
 			}
 		}
 	}
-	return Record{}, r.done
+	return r.done
 }
 
 // keep makes a *FileError final and returns err.
@@ -181,12 +191,21 @@ func (c countingReader) Read(p []byte) (int, error) {
 // reject (either may be nil), and returns what ended the input: nil at its
 // end, else a *FileError or an I/O error.
 func (r *Reader) each(accept func(Record), reject func(*RowError)) error {
+	var rec Record
+	return r.eachInto(func() *Record { return &rec }, func() {
+		if accept != nil {
+			accept(rec)
+		}
+	}, reject)
+}
+
+// eachInto is each for a caller that gives the slot each record is
+// decoded into (slot) and is told when it holds an accepted one (accept).
+func (r *Reader) eachInto(slot func() *Record, accept func(), reject func(*RowError)) error {
 	for {
-		rec, err := r.Next()
+		err := r.nextInto(slot())
 		if err == nil {
-			if accept != nil {
-				accept(rec)
-			}
+			accept()
 			continue
 		}
 		var re *RowError
