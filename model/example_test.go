@@ -46,6 +46,35 @@ func ExampleAnalyze() {
 	// excess 2 counts (+0.6 %), fuel flow +0.6 %
 }
 
+// A fleet's snapshots, analysed in place with the air of their flight
+// levels remembered: the same point as Analyze's.
+func ExampleAnalyzeInto() {
+	ty := exampleType()
+	var levels model.Levels // one per goroutine
+	var p model.Point
+	for _, ff := range []float64{2450, 2500} { // two snapshots at FL350
+		s := model.Snapshot{Weight: 65000, Altitude: 35000 * model.Foot, Mach: 0.78, SAT: -54.3 + model.CelsiusZero, FuelFlow: ff / model.Hour}
+		model.AnalyzeInto(&p, ty, &s, &levels)
+		fmt.Printf("%.0f kg/h: excess %+.1f %%, the same as Analyze: %v\n", ff, p.DragDevPct, fmt.Sprint(p) == fmt.Sprint(model.Analyze(ty, s))) // NaN-safe
+	}
+	// Output:
+	// 2450 kg/h: excess +0.6 %, the same as Analyze: true
+	// 2500 kg/h: excess +2.7 %, the same as Analyze: true
+}
+
+// Points and what is kept beside them put in time order together.
+func ExampleTimeOrder() {
+	pts := []model.TrendPoint{{UnixNano: 30}, {UnixNano: 10}, {UnixNano: 20}}
+	names := []string{"third", "first", "second"} // beside the points
+	if order := model.TimeOrder(pts); order != nil {
+		model.Reorder(pts, order)
+		model.Reorder(names, order)
+	}
+	fmt.Println(pts[0].UnixNano, pts[1].UnixNano, pts[2].UnixNano, names)
+	// Output:
+	// 10 20 30 [first second third]
+}
+
 func ExampleBankTable() {
 	ty := exampleType()
 	air := model.AirISA(35000*model.Foot, 0)
