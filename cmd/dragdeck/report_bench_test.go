@@ -101,7 +101,7 @@ func BenchmarkImport1M(b *testing.B) {
 // follows at once: BenchmarkFirstFrame in tui) and the heap the data keep
 // afterwards, with the dashboard's soft memory limit; the process's
 // resident size is about that plus 30-40 MB of runtime and code (measured
-// with the real dashboard: 176 MB resident, 184 MB at its peak), and the
+// with the real dashboard: 135 MB resident, 141 MB at its peak), and the
 // test process's resident size with the data loaded.
 func BenchmarkDashboardLoad1M(b *testing.B) {
 	path := benchSnapshots(b)
