@@ -123,7 +123,8 @@ func (d *Decoder) reject(n int, col string, kind error, reason string) (bool, er
 	return false, &RowError{File: d.name, Line: n, Column: col, Reason: reason, Err: kind}
 }
 
-// record handles one complete CSV record that starts on line n.
+// record handles one complete CSV record that starts on line n: an
+// accepted row is written into out.
 func (d *Decoder) record(out *Record, rec []byte, n int) (bool, error) {
 	if msg, bad := d.split(rec); msg != "" {
 		if d.hdr == nil {
@@ -293,7 +294,8 @@ func (d *Decoder) split(rec []byte) (string, int) {
 	}
 }
 
-// row converts the fields of data line n into a record.
+// row converts the fields of data line n into the record rec (every field
+// of it written).
 func (d *Decoder) row(rec *Record, n int) (bool, error) {
 	h := d.hdr
 	if len(d.fields) != h.n {
