@@ -67,10 +67,7 @@ type Air struct {
 // AirAt returns the air at pressure altitude h (m) with static air
 // temperature sat (K). Pressure follows the ISA (pressure altitude is
 // defined by it); temperature is the observed one.
-func AirAt(h, sat float64) Air {
-	tISA, p := ISA(h)
-	return Air{Altitude: h, T: sat, P: p, TISA: tISA}
-}
+func AirAt(h, sat float64) Air { return (*Levels)(nil).AirAt(h, sat) }
 
 // AirISA returns the air at pressure altitude h (m) with the temperature
 // deviation dev (K) from standard.

@@ -30,3 +30,9 @@ func (l *Levels) ISA(h float64) (T, p float64) {
 	l.h[k], l.t[k], l.p[k], l.set[k] = h, T, p, true
 	return T, p
 }
+
+// AirAt is the package's AirAt with l's remembered altitudes.
+func (l *Levels) AirAt(h, sat float64) Air {
+	tISA, p := l.ISA(h)
+	return Air{Altitude: h, T: sat, P: p, TISA: tISA}
+}

@@ -5,7 +5,7 @@ import (
 	"testing"
 )
 
-// Levels gives ISA's values, for altitudes met again, new ones, ones that
+// Levels gives ISA's values (and AirAt's air), for altitudes met again, new ones, ones that
 // share a slot, and for what is not an altitude at all.
 func TestLevels(t *testing.T) {
 	var l Levels
@@ -33,6 +33,9 @@ func TestLevels(t *testing.T) {
 				same := func(a, b float64) bool { return a == b || math.IsNaN(a) && math.IsNaN(b) }
 				if !same(gotT, wantT) || !same(gotP, wantP) {
 					t.Fatalf("h %g m: %g K %g Pa, ISA %g K %g Pa", h, gotT, gotP, wantT, wantP)
+				}
+				if a, w := l.AirAt(h, 220), AirAt(h, 220); !same(a.P, w.P) || a.T != w.T || !same(a.TISA, w.TISA) {
+					t.Fatalf("h %g m: air %+v, AirAt %+v", h, a, w)
 				}
 			}
 		})

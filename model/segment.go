@@ -73,9 +73,6 @@ func (s *lineSums) cost(a, b int) float64 { return s.fit(a, b).SSE }
 // where a run must start (e.g. at events); they are boundaries whatever the
 // gain. It returns the start index of every run after the first, ascending.
 func SegmentLines(x, y []float64, minLen int, penalty float64, forced []int) []int {
-	if len(x) == 0 {
-		return nil
-	}
 	return segmentLines(newLineSums(x, y, nil), len(x), minLen, penalty, forced)
 }
 

@@ -92,8 +92,7 @@ func Analyze(t *Type, s Snapshot) Point {
 // atmosphere of the levels l remembers (nil: none): the same values, for
 // a caller that analyses millions of snapshots (a Point is 200 bytes).
 func AnalyzeInto(p *Point, t *Type, s *Snapshot, l *Levels) {
-	tISA, pressure := l.ISA(s.Altitude)
-	air := Air{Altitude: s.Altitude, T: s.SAT, P: pressure, TISA: tISA}
+	air := l.AirAt(s.Altitude, s.SAT)
 	*p = Point{}
 	p.Delta = air.Delta()
 	p.Theta = air.Theta()

@@ -44,8 +44,9 @@ func setMemoryLimit(in *input, perByte float64) (restore func()) {
 	if os.Getenv("GOMEMLIMIT") != "" {
 		return func() {}
 	}
-	percent := -2 // none set
-	if os.Getenv("GOGC") == "" {
+	pace := os.Getenv("GOGC") == "" // else the user's, left alone
+	percent := 0
+	if pace {
 		percent = debug.SetGCPercent(gcPercent)
 	}
 	size := feed.TotalSize(in.files)
@@ -57,7 +58,7 @@ func setMemoryLimit(in *input, perByte float64) (restore func()) {
 	limit := debug.SetMemoryLimit(max(minLimit, int64(perByte*float64(size))))
 	return func() {
 		debug.SetMemoryLimit(limit)
-		if percent != -2 {
+		if pace {
 			debug.SetGCPercent(percent)
 		}
 	}
