@@ -132,8 +132,8 @@ func (pp *partPoints) flight(r *Result, name string) model.FlightID {
 	return id
 }
 
-// merge files a part's points under their tails, after those of the parts
-// before it, with the flights numbered in the result's table, and gives
+// merge files a part's packed points (and their details and rows, when
+// kept) under their tails, after those of the parts before it, and gives
 // the part back to the pool.
 func (r *Result) merge(pp *partPoints) {
 	r.mu.Lock()
