@@ -27,7 +27,12 @@ type TrendPoint struct {
 	// when HasEngine. The engine series is made of the points that have
 	// one (EngineSeries), so it needs no copy of them.
 	EngineDevPct float64
-	Flight       FlightID // the flight's name in the points' FlightNames
+	// FuelFlowDevPct is the fuel-flow deviation, 100 (FF − FF_expected) /
+	// FF_expected (model.Point.FuelFlowDevPct): the airframe's drag and the
+	// engine's consumption together, the series of the fuel factor
+	// (fuelfactor.go).
+	FuelFlowDevPct float64
+	Flight         FlightID // the flight's name in the points' FlightNames
 
 	OutsideTable bool // N1k or Mach outside the type's thrust table
 	HasEngine    bool // thrust from fan speed: EngineDevPct holds the engine deviation
@@ -119,7 +124,7 @@ func (c *TrendConfig) NewPoint(t time.Time, f FlightID, s *Snapshot, p *Point) T
 		m = ManoeuvreAccel
 	}
 	return TrendPoint{UnixNano: t.UnixNano(), Flight: f, DevPct: p.DragDevPct, FuelFlowExpected: p.FuelFlowExpected,
-		OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m}
+		FuelFlowDevPct: p.FuelFlowDevPct, OutsideTable: p.OutsideThrustTable, HasEngine: p.ThrustFromN1, EngineDevPct: p.EngineDevPct, Manoeuvre: m}
 }
 
 // PolarPoints returns the polar-fit points of the usable points among pts

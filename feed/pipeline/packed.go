@@ -6,9 +6,10 @@ import (
 	"dragdeck/model"
 )
 
-// packed is a tail's points while its files are read: about 26 bytes a
-// point where a model.TrendPoint takes 40, since every point of a fleet is
-// held until the reading ends. The deviation and the expected fuel flow are
+// packed is a tail's points while its files are read: about 34 bytes a
+// point where a model.TrendPoint takes 48, since every point of a fleet is
+// held until the reading ends. The deviation, the expected fuel flow and
+// the fuel-flow deviation are
 // kept as they are, the engine deviation only where it is a number (a
 // tail without fan speed has none), and the rest as bytes: per point one
 // byte of flags, the change of time from the point before (a zigzag
@@ -19,16 +20,16 @@ import (
 // it. Each column is chunked (addChunked), so that nothing moves while the
 // tail is read. unpack gives the points back exactly (a NaN stays a NaN).
 type packed struct {
-	dev, ffe, eng [][]float64
-	meta          [][]byte
-	n             int
+	dev, ffe, ffd, eng [][]float64
+	meta               [][]byte
+	n                  int
 }
 
 // segment is one tail's points of one part, packed as they are analysed.
 type segment struct {
-	dev, ffe, eng []float64
-	meta          []byte
-	n             int
+	dev, ffe, ffd, eng []float64
+	meta               []byte
+	n                  int
 	lastNs        int64
 	lastFlight    model.FlightID
 }
@@ -46,7 +47,7 @@ const (
 
 // reset empties the segment, keeping its buffers.
 func (s *segment) reset() {
-	s.dev, s.ffe, s.eng, s.meta, s.n = s.dev[:0], s.ffe[:0], s.eng[:0], s.meta[:0], 0
+	s.dev, s.ffe, s.ffd, s.eng, s.meta, s.n = s.dev[:0], s.ffe[:0], s.ffd[:0], s.eng[:0], s.meta[:0], 0
 }
 
 // add packs one point after those added before.
@@ -80,14 +81,14 @@ func (s *segment) add(p *model.TrendPoint) {
 	s.meta = append(s.meta, flags)
 	s.meta = appendZigzag(s.meta, d)
 	s.meta = appendZigzag(s.meta, f)
-	s.dev, s.ffe = append(s.dev, p.DevPct), append(s.ffe, p.FuelFlowExpected)
+	s.dev, s.ffe, s.ffd = append(s.dev, p.DevPct), append(s.ffe, p.FuelFlowExpected), append(s.ffd, p.FuelFlowDevPct)
 	s.lastNs, s.lastFlight = p.UnixNano, p.Flight
 	s.n++
 }
 
 // add appends a segment's points after those added before.
 func (pk *packed) add(s *segment) {
-	pk.dev, pk.ffe = addChunked(pk.dev, s.dev), addChunked(pk.ffe, s.ffe)
+	pk.dev, pk.ffe, pk.ffd = addChunked(pk.dev, s.dev), addChunked(pk.ffe, s.ffe), addChunked(pk.ffd, s.ffd)
 	if len(s.eng) > 0 {
 		pk.eng = addChunked(pk.eng, s.eng)
 	}
@@ -112,7 +113,7 @@ func (pk *packed) unpack(dst []model.TrendPoint) []model.TrendPoint {
 		return dst
 	}
 	meta := chunkReader[byte]{cs: pk.meta}
-	dev, ffe, eng := chunkReader[float64]{cs: pk.dev}, chunkReader[float64]{cs: pk.ffe}, chunkReader[float64]{cs: pk.eng}
+	dev, ffe, ffd, eng := chunkReader[float64]{cs: pk.dev}, chunkReader[float64]{cs: pk.ffe}, chunkReader[float64]{cs: pk.ffd}, chunkReader[float64]{cs: pk.eng}
 	var ns int64
 	var flight model.FlightID
 	for range pk.n {
@@ -130,7 +131,7 @@ func (pk *packed) unpack(dst []model.TrendPoint) []model.TrendPoint {
 		} else {
 			ns, flight = int64(uint64(ns)+uint64(d)), model.FlightID(int64(flight)+f)
 		}
-		p := model.TrendPoint{UnixNano: ns, Flight: flight, DevPct: dev.next(), FuelFlowExpected: ffe.next(), EngineDevPct: math.NaN(),
+		p := model.TrendPoint{UnixNano: ns, Flight: flight, DevPct: dev.next(), FuelFlowExpected: ffe.next(), FuelFlowDevPct: ffd.next(), EngineDevPct: math.NaN(),
 			OutsideTable: flags&flagOutside != 0, HasEngine: flags&flagEngine != 0, Manoeuvre: model.Manoeuvre(flags>>manoeuvreBits) & 3}
 		if flags&flagEngValue != 0 {
 			p.EngineDevPct = eng.next()
