@@ -30,8 +30,8 @@ type segment struct {
 	dev, ffe, ffd, eng []float64
 	meta               []byte
 	n                  int
-	lastNs        int64
-	lastFlight    model.FlightID
+	lastNs             int64
+	lastFlight         model.FlightID
 }
 
 // The bits of a point's flags byte.
