@@ -31,17 +31,23 @@ import (
 // FactorSeries returns the per-flight series of the fuel factor of a
 // tail's points (in time order): the usable points under c, grouped into
 // flights as the trend groups them (Flights), each flight's value the
-// median fuel-flow deviation of its snapshots. buf is a buffer for the
-// points (may be nil).
-func FactorSeries(pts []TrendPoint, c *TrendConfig, buf []TrendPoint) []FlightPoint {
-	buf = buf[:0]
+// median fuel-flow deviation of its snapshots. buf, when not nil, is a
+// buffer for the points, kept for the next call.
+func FactorSeries(pts []TrendPoint, c *TrendConfig, buf *[]TrendPoint) []FlightPoint {
+	var b []TrendPoint
+	if buf != nil {
+		b = (*buf)[:0]
+	}
 	for _, p := range pts {
 		if c.Usable(p) == "" && !math.IsNaN(p.FuelFlowDevPct) {
 			p.DevPct = p.FuelFlowDevPct
-			buf = append(buf, p)
+			b = append(b, p)
 		}
 	}
-	return Flights(buf, c.FlightGap)
+	if buf != nil {
+		*buf = b
+	}
+	return Flights(b, c.FlightGap)
 }
 
 // FactorLevel is the monitored fuel factor of a tail at one time: the

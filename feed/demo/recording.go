@@ -86,6 +86,12 @@ func (g *demoGen) recording(tt *TailTruth, flight string, dep time.Time, rng *ra
 	sample := func(vs, bank, nextMach float64, sensor func(*demoRow)) {
 		acc := (tas(alt+vs/60, nextMach) - tas(alt, m)) * 60 // kt per minute
 		r := g.snapshot(tt, t, flight, w, alt, m, dev, bank, vs, acc, rng.NormFloat64()*0.002)
+		if vs < 0 {
+			// a steep descent of a clean airframe can need less than no
+			// thrust: the engines sit at idle, taken as a tenth of level
+			// flight's fuel (our choice), never at a negative fuel flow
+			r.ffKgph = max(r.ffKgph, 0.1*g.snapshot(tt, t, flight, w, alt, m, dev, 0, 0, 0, 0).ffKgph)
+		}
 		w -= r.ffKgph / 3600
 		// What the recorder gives: the true values with small sensor noise.
 		r.altFt += rng.NormFloat64() * 2

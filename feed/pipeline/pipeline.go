@@ -49,6 +49,12 @@ type Input struct {
 	// and the tail's own polar (TailTrend.Typical and Polar stay unset, as
 	// for an engine series).
 	DropPoints bool
+
+	// Policy is the fuel-factor policy (nil: model.DefaultFactorPolicy);
+	// InUse the factor in use by tail, % (from the store; a tail not in it
+	// has none, taken as 0).
+	Policy *model.FactorPolicy
+	InUse  map[string]float64
 }
 
 // Result is the pipeline's answer: the fleet assessed, and what it was made of.
@@ -63,6 +69,9 @@ type Result struct {
 	// airframe's; its points are those of Points with an EngineDevPct
 	// (model.EngineSeries).
 	Engine model.Fleet
+	// Factors is each tail's fuel factor (TailFactor) under Policy.
+	Factors map[string]TailFactor
+	Policy  model.FactorPolicy
 	// Records are the accepted records by tail in time order, when
 	// Input.KeepRecords is set and they were given in memory (FromRecords),
 	// as read (Roster.Analyze applies the fleet file's fuel-flow correction
@@ -405,6 +414,7 @@ func (r *Result) assess(in Input) {
 	sort.Strings(tails)
 	trends := make([]model.TailTrend, len(tails))
 	engine := make([]model.TailTrend, len(tails))
+	factors := make([]TailFactor, len(tails))
 	// Per tail, the points, engine points and records without repeats, and
 	// how many were dropped: put back into the maps after the workers.
 	pointsOf, hasEngine := make([][]model.TrendPoint, len(tails)), make([]bool, len(tails))
@@ -419,7 +429,7 @@ func (r *Result) assess(in Input) {
 			// With DropPoints, a tail's points and its engine series are
 			// put in buffers of the worker's, reused from one tail to the
 			// next: no fresh memory for them.
-			var buf, ebuf []model.TrendPoint
+			var buf, ebuf, fbuf []model.TrendPoint
 			for i := range jobs {
 				tail := tails[i]
 				var pts []model.TrendPoint
@@ -457,6 +467,11 @@ func (r *Result) assess(in Input) {
 					engine[i] = model.AnalyzeTrend(tail, ep, nil, r.names, en, in.Config.EngineSeries())
 					engine[i].Type, engine[i].CruiseHours = last.Type, last.CruiseHours
 				}
+				var enTr *model.TailTrend
+				if len(ep) > 0 {
+					enTr = &engine[i]
+				}
+				factors[i] = tailFactor(pts, &trends[i], enTr, append(slices.Clip(af), en...), &in, &fbuf)
 				if in.DropPoints {
 					pointsOf[i], detOf[i], refsOf[i] = nil, nil, nil
 				}
@@ -488,6 +503,10 @@ func (r *Result) assess(in Input) {
 		r.Duplicates += dups[i]
 	}
 	r.packs, r.detChunks, r.refChunks = nil, nil, nil
+	r.Policy, r.Factors = in.policy(), make(map[string]TailFactor, len(tails))
+	for i, tail := range tails {
+		r.Factors[tail] = factors[i]
+	}
 	r.Fleet = model.AssessFleet(trends, in.Config)
 	var withEngine []model.TailTrend
 	for i, tr := range engine {
