@@ -21,6 +21,10 @@ func badID(b []byte) string {
 	return badText(b)
 }
 
+// BadID is badID for a tail or flight id given as text (on the command
+// line, say): "" when it can be used.
+func BadID(s string) string { return badID([]byte(s)) }
+
 // badText says why b cannot be shown as text, or "" when it can: a control
 // character or invalid UTF-8.
 func badText(b []byte) string {

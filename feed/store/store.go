@@ -1,7 +1,8 @@
 // Package store is dragdeck's fleet store (DESIGN.md §3.6): one SQLite file
 // that keeps the snapshots imported (each with the file and line it came
-// from), the events, the fleet file and its type files, the work list and
-// the review marks. It uses modernc.org/sqlite, a pure-Go SQLite: no cgo,
+// from), the events, the fleet file and its type files, the work list,
+// the review marks and the fuel factors (proposals and each tail's
+// history, factors.go). It uses modernc.org/sqlite, a pure-Go SQLite: no cgo,
 // no server, nothing to install beyond go.mod.
 //
 // The store is opened in WAL mode, so that a dashboard can read while an
@@ -63,6 +64,24 @@ var migrations = []string{
 	CREATE TABLE reviews (
 		id INTEGER PRIMARY KEY, time INTEGER NOT NULL, state TEXT NOT NULL
 	);`,
+	// 3: fuel factors: the proposals with their moves, and each tail's
+	// history of the factor in use (factors.go).
+	`CREATE TABLE factor_proposals (
+		id INTEGER PRIMARY KEY, tail TEXT NOT NULL, type TEXT NOT NULL, period TEXT NOT NULL,
+		status TEXT NOT NULL, proposed_pct REAL NOT NULL, in_use_pct REAL NOT NULL, monitored_pct REAL NOT NULL,
+		lo_pct REAL, hi_pct REAL, flights INTEGER NOT NULL, plan_fuel REAL,
+		needs_note INTEGER NOT NULL, second_look INTEGER NOT NULL, created INTEGER NOT NULL, updated INTEGER NOT NULL
+	);
+	CREATE INDEX factor_proposals_tail ON factor_proposals (tail, period);
+	CREATE TABLE factor_notes (
+		proposal INTEGER NOT NULL REFERENCES factor_proposals (id), time INTEGER NOT NULL,
+		status TEXT NOT NULL, set_by TEXT NOT NULL, text TEXT NOT NULL
+	);
+	CREATE TABLE factor_history (
+		id INTEGER PRIMARY KEY, tail TEXT NOT NULL, pct REAL NOT NULL, effective INTEGER NOT NULL,
+		set_by TEXT NOT NULL, why TEXT NOT NULL, proposal INTEGER REFERENCES factor_proposals (id), recorded INTEGER NOT NULL
+	);
+	CREATE INDEX factor_history_tail ON factor_history (tail, effective);`,
 }
 
 // Version is the schema version this dragdeck writes.
