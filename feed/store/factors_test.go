@@ -107,7 +107,9 @@ func TestFactorMovesAndHistory(t *testing.T) {
 		{"apply a proposal not approved", func() error { return s.ApplyProposals([]int64{1, 2}, "a", s.Now()) }, ErrTransition},
 		{"no such proposal", func() error { return s.MoveProposal(99, FactorApproved, "a", "") }, ErrNoProposal},
 		{"approve", func() error { return s.MoveProposal(1, FactorApproved, "b", "") }, nil},
-		{"apply both", func() error { return s.ApplyProposals([]int64{1, 2}, "c", time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC)) }, nil},
+		{"apply both", func() error {
+			return s.ApplyProposals([]int64{1, 2}, "c", time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC))
+		}, nil},
 		{"apply again", func() error { return s.ApplyProposals([]int64{1}, "c", s.Now()) }, ErrTransition},
 		{"set by hand without a note", func() error { _, err := s.SetFactor("T1", 1, s.Now(), "d", ""); return err }, ErrNeedsNote},
 		{"set by hand", func() error {
