@@ -17,6 +17,57 @@ type fleetFile struct {
 	Name  string            `toml:"name"`
 	Types map[string]string `toml:"types"` // type name -> type file, relative to the fleet file
 	Tail  []fleetTail       `toml:"tail"`
+	// FuelFactor is the fuel-factor policy (model.FactorPolicy); every key
+	// is optional, the defaults stand for those left out.
+	FuelFactor *fleetFactor `toml:"fuel_factor"`
+}
+
+type fleetFactor struct {
+	WindowDays   *float64           `toml:"window_days"`
+	MinFlights   *int               `toml:"min_flights"`
+	RoundPct     *float64           `toml:"round_pct"`
+	DeadBandPct  *float64           `toml:"dead_band_pct"`
+	Periods      *int               `toml:"periods"`
+	MinPct       *float64           `toml:"min_pct"`
+	MaxPct       *float64           `toml:"max_pct"`
+	MaxChangePct *float64           `toml:"max_change_pct"`
+	BasicPct     map[string]float64 `toml:"basic_pct"` // by type name
+}
+
+// policy is the fleet file's fuel-factor policy over the defaults; nil
+// without a [fuel_factor] table. Errors name the key and its line.
+func (f *fleetFactor) policy(types map[string]*model.Type, at func(string) string) (*model.FactorPolicy, error) {
+	if f == nil {
+		return nil, nil
+	}
+	p := model.DefaultFactorPolicy()
+	for _, v := range []struct {
+		dst *float64
+		src *float64
+	}{{&p.WindowDays, f.WindowDays}, {&p.RoundPct, f.RoundPct}, {&p.DeadBandPct, f.DeadBandPct},
+		{&p.MinPct, f.MinPct}, {&p.MaxPct, f.MaxPct}, {&p.MaxChangePct, f.MaxChangePct}} {
+		if v.src != nil {
+			*v.dst = *v.src
+		}
+	}
+	if f.MinFlights != nil {
+		p.MinFlights = *f.MinFlights
+	}
+	if f.Periods != nil {
+		p.Periods = *f.Periods
+	}
+	for name := range f.BasicPct {
+		if _, ok := types[name]; !ok {
+			return nil, fmt.Errorf("%s: fuel_factor.basic_pct: %q is not a type of [types]", at("fuel_factor.basic_pct."+name), name)
+		}
+	}
+	p.BasicPct = f.BasicPct
+	if err := p.Check(); err != nil {
+		key, _, _ := strings.Cut(err.Error(), ":")
+		key, _, _ = strings.Cut(key, ",") // "min_pct, max_pct"
+		return nil, fmt.Errorf("%s: fuel_factor.%v", at("fuel_factor."+key), err)
+	}
+	return &p, nil
 }
 
 // fleetSchema is the keys a fleet file may hold.
@@ -121,6 +172,9 @@ func ParseFleet(name string, data []byte, load func(rel string) (*model.Type, er
 			return nil, fmt.Errorf("%s:%d: %w", name, ee.Line, err)
 		}
 		return nil, fmt.Errorf("%s: %w", name, err)
+	}
+	if r.FuelFactor, err = f.FuelFactor.policy(types, at); err != nil {
+		return nil, err
 	}
 	return r, nil
 }

@@ -159,3 +159,40 @@ func BenchmarkParseFleet20000(b *testing.B) {
 	}
 	b.ReportMetric(float64(20000*b.N)/b.Elapsed().Seconds(), "tails/s")
 }
+
+// The [fuel_factor] table: keys over the defaults, errors with their key
+// and line.
+func TestParseFleetFuelFactor(t *testing.T) {
+	load := func(string) (*model.Type, error) { return DemoType(), nil }
+	head := "[types]\n\"DD-200\" = \"a.toml\"\n[[tail]]\nid = \"T\"\ntype = \"DD-200\"\n"
+	tests := []struct {
+		name, doc string
+		check     func(p *model.FactorPolicy) bool
+		want      string // an error's text; "" for none
+	}{
+		{"none: defaults apply", "", func(p *model.FactorPolicy) bool { return p == nil }, ""},
+		{"some keys", "[fuel_factor]\ndead_band_pct = 0.8\nperiods = 3\n[fuel_factor.basic_pct]\n\"DD-200\" = 0.4\n",
+			func(p *model.FactorPolicy) bool {
+				return p.DeadBandPct == 0.8 && p.Periods == 3 && p.BasicPct["DD-200"] == 0.4 && p.RoundPct == 0.1 && p.MinFlights == 20
+			}, ""},
+		{"a bad value", "[fuel_factor]\nround_pct = 0\n", nil, "f.toml:7: fuel_factor.round_pct: must be > 0"},
+		{"range upside down", "[fuel_factor]\nmin_pct = 9\n", nil, "f.toml:7: fuel_factor.min_pct, max_pct: need min < max"},
+		{"basic of an unknown type", "[fuel_factor.basic_pct]\nXX = 1\n", nil, "f.toml:7: fuel_factor.basic_pct: \"XX\" is not a type"},
+		{"an unknown key", "[fuel_factor]\nband = 1\n", nil, "f.toml:7: fuel_factor.band: unknown key"},
+		{"a wrong kind", "[fuel_factor]\nperiods = \"two\"\n", nil, "f.toml:7"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			r, err := ParseFleet("f.toml", []byte(head+tc.doc), load)
+			if tc.want != "" {
+				if err == nil || !strings.Contains(err.Error(), tc.want) {
+					t.Errorf("error %v, want %q", err, tc.want)
+				}
+				return
+			}
+			if err != nil || !tc.check(r.FuelFactor) {
+				t.Errorf("policy %+v, error %v", r.FuelFactor, err)
+			}
+		})
+	}
+}

@@ -29,6 +29,9 @@ type RosterEntry struct {
 type Roster struct {
 	Name  string           // free text from the fleet file
 	Types map[string]*Type // by the fleet file's name
+	// FuelFactor is the fleet file's fuel-factor policy; nil when it has
+	// none (the defaults apply).
+	FuelFactor *FactorPolicy
 
 	single  *Type                    // a single-type roster's type
 	entries map[string][]RosterEntry // by tail, ascending Since
