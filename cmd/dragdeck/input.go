@@ -20,6 +20,10 @@ type input struct {
 	store  *store.Store // nil when reading files
 	events map[string][]model.Event
 	work   map[string][]store.WorkItem // the items in progress by tail (store only)
+	// inUse is each tail's fuel factor in use now (store only); policy
+	// the fuel-factor policy (nil: the defaults).
+	inUse  map[string]store.FactorSetting
+	policy *model.FactorPolicy
 }
 
 // storeFlag declares --store on a command that reads snapshots.
@@ -73,14 +77,23 @@ func openInput(stderr io.Writer, fs *flagSet, types typeChoice, storePath, event
 		return fail(usageErrorf("--store: %v", err))
 	}
 	in.work = store.OpenWork(items)
+	hist, err := in.store.FactorHistory("")
+	if err != nil {
+		return fail(usageErrorf("--store: %v", err))
+	}
+	in.inUse = store.InUse(hist, in.store.Now())
 	return in, nil
 }
 
 // pipelineInput is the pipeline's input for these snapshots.
 func (in *input) pipelineInput(c model.TrendConfig) pipeline.Input {
-	p := pipeline.Input{Paths: in.files, Roster: in.roster, Events: in.events, Config: c}
+	p := pipeline.Input{Paths: in.files, Roster: in.roster, Events: in.events, Config: c, Policy: in.policy}
 	if in.store != nil {
 		p.Source = in.store
+		p.InUse = make(map[string]float64, len(in.inUse))
+		for tail, f := range in.inUse {
+			p.InUse[tail] = f.Pct
+		}
 	}
 	return p
 }

@@ -41,6 +41,8 @@ type fleetJSON struct {
 	// Types groups the tails by the type in force at their last snapshot:
 	// the medians their level flags compare with.
 	Types map[string]typeJSON `json:"types"`
+	// FuelFactor sums the fuel-factor proposals.
+	FuelFactor fleetFactorJSON `json:"fuel_factor"`
 }
 
 type typeJSON struct {
@@ -96,6 +98,8 @@ type tailJSON struct {
 	Engine *seriesJSON `json:"engine"`
 	// Work is the tail's work items in progress (from a store; [] else).
 	Work []workRefJSON `json:"work"`
+	// FuelFactor is the tail's fuel factor: in use, monitored, proposed.
+	FuelFactor factorJSON `json:"fuel_factor"`
 }
 
 // workRefJSON is a work item in a report: its id, status and reason.
@@ -253,6 +257,7 @@ tail's work items in progress are shown.`,
 	storePath := fs.storeFlag()
 	failOnFlag := fs.Bool("fail-on-flag", false, "exit 1 when any tail is flagged (for scheduled jobs)")
 	trend := trendFlags(fs)
+	policyOf := factorFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
@@ -270,6 +275,9 @@ tail's work items in progress are shown.`,
 		return err
 	}
 	defer in.close()
+	if in.policy, err = policyOf(in.roster); err != nil {
+		return err
+	}
 	files := in.files
 	var rejOut *atomicFile
 	if *rejects != "" {
@@ -387,7 +395,8 @@ func leaveOutOutput(stderr io.Writer, out string, args, inputs []string) ([]stri
 func writeReportJSON(w io.Writer, r *pipeline.Result, work map[string][]store.WorkItem) error {
 	f, c := r.Fleet, r.Config
 	j := reportJSON{Read: r.Stats.Read, Rejected: r.Stats.Rejected, Duplicates: r.Duplicates, Tails: []tailJSON{}, Caution: strings.ReplaceAll(caution, "\n", " "),
-		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last), Types: newTypesJSON(r)},
+		Fleet: fleetJSON{fleetSeriesJSON: newFleetSeriesJSON(f), First: timeOrEmpty(r.First), Last: timeOrEmpty(r.Last), Types: newTypesJSON(r),
+			FuelFactor: newFleetFactorJSON(r)},
 		Settings: map[string]any{"type": r.Roster.Label(), "recent_days": c.RecentDays, "drift_days": c.DriftDays,
 			"level_pp": c.LevelPP, "growth_pp": c.GrowthPP, "step_pp": c.StepPP, "cruise_hours": c.CruiseHours}}
 	if len(r.Engine.Tails) > 0 {
@@ -401,6 +410,7 @@ func writeReportJSON(w io.Writer, r *pipeline.Result, work map[string][]store.Wo
 		}
 		t := newTailJSON(a, engine, c.FuelPrice)
 		t.Work = workRefs(work[a.Tail])
+		t.FuelFactor = newFactorJSON(r.Factors[a.Tail])
 		j.Tails = append(j.Tails, t)
 	}
 	return writeJSON(w, j)
@@ -420,6 +430,7 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 		"last_step_date", "last_step_size_pct", "flags", "excess_fuel_kg_per_year", "co2_t_per_year",
 		"engine_deviation_pct", "engine_drift_pct_per_100d", "engine_last_step_date", "engine_last_step_size_pct", "engine_flags",
 		"engine_excess_fuel_kg_per_year"}
+	head = append(head, factorCSVHead...)
 	if price > 0 {
 		head = append(head, "money_per_year")
 	}
@@ -441,6 +452,7 @@ func writeReportCSV(w io.Writer, r *pipeline.Result, price float64) error {
 			fmtF(a.RecentPct, 2), fmtF(a.Drift.Slope, 2), fmtF(a.Drift.Lo, 2), fmtF(a.Drift.Hi, 2), stepDate, stepSize,
 			strings.Join(a.Flags, " "), fmtF(a.ExcessFuel, 0), fmtF(a.CO2/1000, 1)}
 		row = append(row, eng...)
+		row = append(row, factorCSV(r.Factors[a.Tail])...)
 		if price > 0 {
 			row = append(row, fmtF(a.Money, 0))
 		}
@@ -592,6 +604,7 @@ func writeReportTable(w io.Writer, r *pipeline.Result, in *input) {
 		fmt.Fprintf(w, ";\nmoney: thousands per year at %g per kg of fuel (CO2 is 3.16 × the fuel)", price)
 	}
 	fmt.Fprintf(w, ".\n%s\n", caution)
+	writeFactorTable(w, r, in.store != nil)
 }
 
 // signed formats v with a sign, or "-" for NaN.

@@ -49,6 +49,7 @@ func commands() []command {
 		{"import", "add snapshot, events and fleet files to the fleet store", runImport},
 		{"worklist", "the work list: items for maintenance, from open to closed", runWorklist},
 		{"review", "what changed since the last review: flags, steps, work, events", runReview},
+		{"factor", "fuel factors for flight planning: propose, approve, apply, export", runFactor},
 	}
 }
 

@@ -74,9 +74,11 @@ func (in *Input) policy() model.FactorPolicy {
 }
 
 // FactorTotals sums what the proposals put into the plan and take out of
-// it a year (kg of fuel), and counts the proposals.
+// it a year (kg of fuel), and counts the proposals; in the fleet's order,
+// so that the sums have the same digits every run.
 func (r *Result) FactorTotals() (in, out float64, proposals int) {
-	for _, f := range r.Factors {
+	for _, a := range r.Fleet.Tails {
+		f := r.Factors[a.Tail]
 		if !f.Proposal.Proposed {
 			continue
 		}

@@ -154,11 +154,12 @@ func (s *Store) FileProposals(ps []Proposal, by string) (filed, kept int, err er
 	return filed, kept, tx.Commit()
 }
 
-// MoveProposal moves proposal id to status (approved or rejected), by
-// whom, with a note: a rejection always needs one, and so does approving
-// a proposal outside the policy's range (NeedsNote). Applying is
+// MoveProposals moves proposals to status (approved or rejected), by
+// whom, with a note, in one transaction: one move that is refused refuses
+// them all. A rejection always needs a note, and so does approving a
+// proposal outside the policy's range (NeedsNote). Applying is
 // ApplyProposals.
-func (s *Store) MoveProposal(id int64, status, by, note string) error {
+func (s *Store) MoveProposals(ids []int64, status, by, note string) error {
 	if status != FactorApproved && status != FactorRejected {
 		return fmt.Errorf("%q: %w (approve or reject here; apply writes the history)", status, ErrStatus)
 	}
@@ -167,10 +168,18 @@ func (s *Store) MoveProposal(id int64, status, by, note string) error {
 		return err
 	}
 	defer tx.Rollback()
-	if err := moveProposal(tx, id, status, by, note, s.now().UnixNano()); err != nil {
-		return err
+	now := s.now().UnixNano()
+	for _, id := range ids {
+		if err := moveProposal(tx, id, status, by, note, now); err != nil {
+			return err
+		}
 	}
 	return tx.Commit()
+}
+
+// MoveProposal is MoveProposals of one proposal.
+func (s *Store) MoveProposal(id int64, status, by, note string) error {
+	return s.MoveProposals([]int64{id}, status, by, note)
 }
 
 // moveProposal checks and makes one move inside tx.
