@@ -37,6 +37,18 @@ var reportTemplate = template.Must(template.New("report").Funcs(template.FuncMap
 		return signed(*v, prec)
 	},
 	// thousands shows kg as tonnes (and money as thousands), signed
+	// tonnes shows kg as tonnes, signed, to a tenth
+	"tonnes": func(v any) string {
+		switch x := v.(type) {
+		case float64:
+			return signed(x/1000, 1)
+		case *float64:
+			if x != nil {
+				return signed(*x/1000, 1)
+			}
+		}
+		return "–"
+	},
 	"thousands": func(v *float64) string {
 		if v == nil {
 			return "–"
@@ -68,6 +80,19 @@ type htmlPage struct {
 	Work      []store.WorkItem
 	Settings  model.TrendConfig
 	Caution   string
+	// The fuel factors: per tail, and the fleet's sums of the proposals.
+	Factors       []htmlFactorRow
+	Factor        fleetFactorJSON
+	FactorCaution string
+	FactorPeriod  string
+}
+
+// htmlFactorRow is a tail's fuel factor on the page: the report JSON's
+// fuel_factor of the tail.
+type htmlFactorRow struct {
+	Tail, Type string
+	factorJSON
+	Lo, Hi *float64
 }
 
 type htmlTotals struct {
@@ -135,7 +160,13 @@ func writeReportHTML(w io.Writer, r *pipeline.Result, in *input, now time.Time) 
 			row.Work = fmt.Sprintf("#%d %s", items[len(items)-1].ID, items[len(items)-1].Status)
 		}
 		pg.Rows = append(pg.Rows, row)
+		fj := newFactorJSON(r.Factors[a.Tail])
+		pg.Factors = append(pg.Factors, htmlFactorRow{Tail: a.Tail, Type: a.Type, factorJSON: fj, Lo: fj.MonitoredCI95Pct[0], Hi: fj.MonitoredCI95Pct[1]})
+		if fj.Period > pg.FactorPeriod {
+			pg.FactorPeriod = fj.Period
+		}
 	}
+	pg.Factor, pg.FactorCaution = newFleetFactorJSON(r), factorCaution
 	if len(f.Tails) > 0 {
 		p, n := fleetPlot(f)
 		svg, err := plotSVG(p, 20*vg.Centimeter, fleetPlotHeight(n))

@@ -113,8 +113,19 @@ func TestReportHTML(t *testing.T) {
 				DeviationPct *float64 `json:"deviation_pct"`
 				Flags        []string `json:"flags"`
 			} `json:"engine"`
+			Factor struct {
+				Monitored *float64 `json:"monitored_pct"`
+				Proposed  *float64 `json:"proposed_pct"`
+				PlanFuel  *float64 `json:"plan_fuel_kg_per_year"`
+			} `json:"fuel_factor"`
 		} `json:"tails"`
 	}
+	var fleetFactor struct {
+		Fleet struct {
+			F fleetFactorJSON `json:"fuel_factor"`
+		} `json:"fleet"`
+	}
+	json.Unmarshal([]byte(js), &fleetFactor)
 	if err := json.Unmarshal([]byte(js), &rep); err != nil {
 		t.Fatal(err)
 	}
@@ -125,7 +136,7 @@ func TestReportHTML(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	rows := map[string]map[string]string{}
+	rows, factorRows := map[string]map[string]string{}, map[string]map[string]string{}
 	var order []string
 	charts := map[string]bool{}
 	svgs := 0
@@ -166,6 +177,15 @@ func TestReportHTML(t *testing.T) {
 				})
 				rows[tail] = cells
 				order = append(order, tail)
+			}
+			if tail, ok := attr(n, "data-factor-tail"); ok {
+				cells := map[string]string{}
+				walk(n, func(c *html.Node) {
+					if k, ok := attr(c, "data-k"); ok {
+						cells[k] = text(c)
+					}
+				})
+				factorRows[tail] = cells
 			}
 		}
 		if id, ok := attr(n, "id"); ok {
@@ -208,10 +228,23 @@ func TestReportHTML(t *testing.T) {
 		if jt.Engine != nil && !near(c["engine"], jt.Engine.DeviationPct, 0.005) {
 			t.Errorf("%s: engine %q, JSON %v", jt.Tail, c["engine"], jt.Engine.DeviationPct)
 		}
+		// the fuel factor: the JSON's monitored and proposed factor, the plan's fuel in tonnes
+		fc := factorRows[jt.Tail]
+		if !near(fc["monitored"], jt.Factor.Monitored, 0.005) || !near(fc["proposed"], jt.Factor.Proposed, 0.05) || !near(fc["plan"], scaled(jt.Factor.PlanFuel, 1e-3), 0.05) {
+			t.Errorf("%s: fuel factor row %v, JSON %+v", jt.Tail, fc, jt.Factor)
+		}
 		flagged := len(jt.Flags) > 0 || jt.Engine != nil && len(jt.Engine.Flags) > 0
 		if flagged != charts[jt.Tail] {
 			t.Errorf("%s: flagged %v, chart %v", jt.Tail, flagged, charts[jt.Tail])
 		}
+	}
+	ff := fleetFactor.Fleet.F
+	if ids["factor-proposals"] != strconv.Itoa(ff.Proposals) || math.Abs(shown(ids["factor-in"])-ff.PlanFuelInKgPerYear/1000) > 0.05 ||
+		math.Abs(shown(ids["factor-out"])-ff.PlanFuelOutKgPerYear/1000) > 0.05 {
+		t.Errorf("fuel factor totals %q %q %q, JSON %+v", ids["factor-proposals"], ids["factor-in"], ids["factor-out"], ff)
+	}
+	if len(factorRows) != len(rep.Tails) {
+		t.Errorf("%d fuel factor rows, %d tails", len(factorRows), len(rep.Tails))
 	}
 	if !hostileSeen || !charts[hostileTail] {
 		t.Errorf("the hostile tail is not in the report, or has no chart (%v)", hostileSeen)
@@ -219,8 +252,8 @@ func TestReportHTML(t *testing.T) {
 	if svgs != len(charts)+1 {
 		t.Errorf("%d inline SVG, want %d charts and the overview", svgs, len(charts))
 	}
-	if !strings.Contains(text(doc), "not approved performance data") {
-		t.Error("no caution")
+	if !strings.Contains(text(doc), "not approved performance data") || !strings.Contains(text(doc), "engineering proposal for the operator's approved") {
+		t.Error("no caution, or none beside the fuel factors")
 	}
 }
 
