@@ -64,6 +64,10 @@ func (p FactorPolicy) Round(pct float64) float64 {
 	return math.Round(r*1e9) / 1e9 // 0.30000000000000004 → 0.3
 }
 
+// FactorCaution stands beside every proposal and every factor sent out.
+const FactorCaution = "A fuel factor here is an engineering proposal for the operator's approved\n" +
+	"process, not approved performance data."
+
 // FactorProposal is what the policy makes of a tail's monitored factor.
 type FactorProposal struct {
 	Tail, Type string

@@ -23,6 +23,9 @@ type Data struct {
 	// likewise).
 	Work   WorkList
 	Review *ReviewMarks
+	// Factors is the store's fuel factors (nil unless the data come from a
+	// store).
+	Factors FactorBook
 	*pipeline.Result
 }
 

@@ -81,6 +81,10 @@ type fleetScreen struct {
 	work   map[string][]store.WorkItem
 	form   *workForm
 	notice string
+	// the fuel factors (a store's data): the open proposals by tail and
+	// the factor key's form while it is open
+	props map[string]store.Proposal
+	fform *factorForm
 }
 
 func newFleetScreen(st Styles) *fleetScreen {
@@ -96,20 +100,24 @@ func (s *fleetScreen) Title() string { return "Fleet" }
 
 func (s *fleetScreen) Init() tea.Cmd { return nil }
 
-func (s *fleetScreen) Capturing() bool { return s.filtering || s.form != nil }
+func (s *fleetScreen) Capturing() bool { return s.filtering || s.form != nil || s.fform != nil }
 
 func (s *fleetScreen) ShortHelp() []key.Binding {
 	k := fleetKeyMap
-	if s.form != nil {
+	if s.form != nil || s.fform != nil {
 		return []key.Binding{keyWorkSave, keyWorkCancel, keyWorkNext}
 	}
 	if s.filtering {
 		return []key.Binding{k.Keep, k.Clear}
 	}
+	keys := []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter}
 	if s.data != nil && s.data.Work != nil {
-		return []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter, keyWork}
+		keys = append(keys, keyWork)
 	}
-	return []key.Binding{k.Up, k.Down, k.Open, k.Sort, k.Filter}
+	if s.data != nil && s.data.Factors != nil {
+		keys = append(keys, keyFactor)
+	}
+	return keys
 }
 
 func (s *fleetScreen) FullHelp() [][]key.Binding {
@@ -117,6 +125,9 @@ func (s *fleetScreen) FullHelp() [][]key.Binding {
 	all := [][]key.Binding{{k.Up, k.Down, k.PgUp, k.PgDn, k.Home, k.End}, {k.Open, k.Sort, k.Filter, k.Keep, k.Clear}}
 	if s.data != nil && s.data.Work != nil {
 		all = append(all, []key.Binding{keyWork, keyWorkNext, keyWorkPrev, keyWorkSave, keyWorkCancel})
+	}
+	if s.data != nil && s.data.Factors != nil {
+		all = append(all, []key.Binding{keyFactor})
 	}
 	return all
 }
@@ -127,6 +138,7 @@ func (s *fleetScreen) SetData(d *Data) {
 	s.sparkLo, s.sparkHi = d.Fleet.DeviationRange()
 	s.sparks, s.sparkW = nil, -1
 	s.loadWork()
+	s.loadFactors()
 	s.applyFilter()
 }
 
@@ -142,6 +154,40 @@ func (s *fleetScreen) loadWork() {
 		return
 	}
 	s.work = w
+}
+
+// loadFactors reads the open proposals from the store's fuel factors.
+func (s *fleetScreen) loadFactors() {
+	s.props = nil
+	if s.data == nil || s.data.Factors == nil {
+		return
+	}
+	p, err := s.data.Factors.Open()
+	if err != nil {
+		s.notice = "fuel factors: " + err.Error()
+		return
+	}
+	s.props = p
+}
+
+// openFactorForm opens the factor key's form on the selected tail's
+// proposal, or says why the tail has none.
+func (s *fleetScreen) openFactorForm() {
+	tail, ok := s.selected()
+	if !ok || s.data.Factors == nil {
+		return
+	}
+	f, _ := s.data.Factor(tail)
+	p, ok := shownProposal(f, s.props, tail)
+	if !ok {
+		why := f.Proposal.Reason
+		if why == "" {
+			why = "nothing to propose"
+		}
+		s.notice = fmt.Sprintf("%s: no fuel-factor proposal (%s)", tail, why)
+		return
+	}
+	s.fform = newFactorForm(tail, p)
 }
 
 // openForm opens the work key's form on the selected tail: a new item
@@ -238,6 +284,23 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		s.render()
 		return s, cmd
 	}
+	if s.fform != nil {
+		done, save, cmd := s.fform.update(km)
+		if done {
+			if save {
+				msg, err := s.fform.save(s.data.Factors)
+				if err != nil {
+					s.notice = "not saved: " + err.Error()
+				} else {
+					s.notice = msg
+					s.loadFactors()
+				}
+			}
+			s.fform = nil
+		}
+		s.render()
+		return s, cmd
+	}
 	if s.filtering {
 		switch {
 		case key.Matches(km, k.Keep):
@@ -290,6 +353,14 @@ func (s *fleetScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 			return s, nil
 		}
 		return s, s.form.text.Focus()
+	case key.Matches(km, keyFactor) && s.data != nil && s.data.Factors != nil:
+		s.notice = ""
+		s.openFactorForm()
+		s.render()
+		if s.fform == nil {
+			return s, nil
+		}
+		return s, s.fform.text.Focus()
 	case key.Matches(km, k.Open):
 		if t, ok := s.selected(); ok {
 			return s, func() tea.Msg { return openTailMsg{t} }
@@ -316,6 +387,8 @@ func (s *fleetScreen) footLines() int {
 	switch {
 	case s.form != nil:
 		return 2
+	case s.fform != nil:
+		return factorFormLines
 	case s.notice != "":
 		return 1
 	}
@@ -331,11 +404,14 @@ const (
 	colDev   = 7
 	colDrift = 8
 	colStep  = 16 // "2026-03-01 +3.5"
+	colStepC = 13 // compact: the month, "2026-03 +3.5"
 	colFuel  = 7
 	colFlags = 14
 	colEng   = 7  // the engine series' level, when any tail has one
 	colType  = 10 // at most, for the tail's type with a fleet file of several types
 	colWork  = 8  // the work item's status, with a store
+	colPlan  = 11 // the fuel factor in use → proposed, "+0.5→+2.4✓"
+	colPlanC = 8  // compact: the proposed factor, "→+2.4✓", or the one in use
 	minSpark = 6  // a narrower sparkline is left out
 )
 
@@ -343,10 +419,15 @@ const (
 // screen: the type (0 with one type, named in the header), the engine
 // level (0 when no tail has an engine series), the flags and the
 // sparkline (0 when it does not fit: the flags then take what is left).
-type fleetCols struct{ typ, eng, work, flags, spark int }
+// When the flags would not get their width, the screen is compact: the
+// last step shows its month and the factor column the proposal alone.
+type fleetCols struct {
+	typ, eng, work, flags, spark, step, plan int
+	compact                                  bool
+}
 
 func (s *fleetScreen) cols() fleetCols {
-	c := fleetCols{eng: s.engineCol(), flags: colFlags}
+	c := fleetCols{eng: s.engineCol(), flags: colFlags, step: colStep, plan: colPlan}
 	if s.data != nil && s.data.Work != nil {
 		c.work = colWork
 	}
@@ -355,7 +436,14 @@ func (s *fleetScreen) cols() fleetCols {
 			c.typ = max(c.typ, min(colType, len([]rune(n))+1))
 		}
 	}
-	fixed := colMark + colTail + c.typ + colDev + colDrift + 1 + colStep + colFuel + c.eng + 1 + c.work
+	fixedOf := func() int {
+		return colMark + colTail + c.typ + colDev + colDrift + 1 + c.step + colFuel + c.eng + c.plan + 1 + c.work
+	}
+	fixed := fixedOf()
+	if s.w-fixed < colFlags {
+		c.compact, c.step, c.plan = true, colStepC, colPlanC
+		fixed = fixedOf()
+	}
 	c.spark = s.w - fixed - colFlags - 1
 	if c.spark < minSpark {
 		c.spark, c.flags = 0, max(5, s.w-fixed)
@@ -437,10 +525,14 @@ func (s *fleetScreen) render() {
 	if cols.spark < len(sparkHead1) {
 		sparkHead1, sparkHead2 = "trend", "dev %"
 	}
-	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", cols.typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", colStep) +
-		padL("fuel", colFuel) + padL("engine", cols.eng) + " " + pad("work", cols.work) + pad("flags", cols.flags) + cols.sparkCell(sparkHead1)
-	h2 := pad("", colMark) + pad("", colTail) + pad("", cols.typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad("date       pp", colStep) +
-		padL("t/yr", colFuel) + padL("%", cols.eng) + " " + pad("", cols.work) + pad("", cols.flags) + cols.sparkCell(sparkHead2)
+	stepUnit, planUnit := "date       pp", "use→new %"
+	if cols.compact {
+		stepUnit, planUnit = "month    pp", "%"
+	}
+	h1 := pad("", colMark) + pad("tail", colTail) + pad("type", cols.typ) + padL("level", colDev) + padL("drift", colDrift) + " " + pad("last step", cols.step) +
+		padL("fuel", colFuel) + padL("engine", cols.eng) + padL("factor", cols.plan) + " " + pad("work", cols.work) + pad("flags", cols.flags) + cols.sparkCell(sparkHead1)
+	h2 := pad("", colMark) + pad("", colTail) + pad("", cols.typ) + padL(fmt.Sprintf("%% %gd", c.RecentDays), colDev) + padL("pp/100d", colDrift) + " " + pad(stepUnit, cols.step) +
+		padL("t/yr", colFuel) + padL("%", cols.eng) + padL(planUnit, cols.plan) + " " + pad("", cols.work) + pad("", cols.flags) + cols.sparkCell(sparkHead2)
 	b.WriteString(s.st.Header.Render(truncate(h1, s.w)) + "\n")
 	b.WriteString(s.st.Muted.Render(truncate(h2, s.w)) + "\n")
 	if len(s.rows) == 0 {
@@ -466,6 +558,8 @@ func (s *fleetScreen) render() {
 	switch {
 	case s.form != nil:
 		b.WriteString(s.form.view(s.st, s.w) + "\n")
+	case s.fform != nil:
+		b.WriteString(s.fform.view(s.st, s.w) + "\n")
 	case s.notice != "":
 		b.WriteString(s.st.Accent.Render(truncate(s.notice, s.w)) + "\n")
 	}
@@ -479,7 +573,11 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 	stepStyle := s.st.Text
 	if k := len(a.Steps); k > 0 {
 		st := a.Steps[k-1]
-		step = st.Time.Format("2006-01-02") + " " + fmtSigned(st.SizePct, 1)
+		layout := "2006-01-02"
+		if cols.compact {
+			layout = "2006-01"
+		}
+		step = st.Time.Format(layout) + " " + fmtSigned(st.SizePct, 1)
 		if s.data.Review != nil && s.data.Review.Steps[a.Tail] > 0 {
 			step = "+" + step // a step new since the last review mark
 		}
@@ -525,7 +623,9 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 		spk = " " + s.sparkFor(a, cols.spark)
 	}
 	num := pad(clean(a.Tail), colTail) + pad(truncate(clean(a.Type), max(0, cols.typ-1)), cols.typ) + padL(fmtSigned(a.RecentPct, 2), colDev) + padL(fmtSigned(a.Drift.Slope, 2), colDrift) + " "
-	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + " "
+	f, _ := s.data.Factor(a.Tail)
+	p, hasP := shownProposal(f, s.props, a.Tail)
+	fuel := padL(fmtSigned(a.ExcessFuel/1000, 0), colFuel) + engine + padL(factorCell(f, p, hasP, cols.compact), cols.plan) + " "
 	if cols.work > 0 {
 		w := "-"
 		if items := s.work[a.Tail]; len(items) > 0 {
@@ -535,13 +635,13 @@ func (s *fleetScreen) row(a model.TailAssessment, selected bool, cols fleetCols)
 	}
 	flagText := pad(truncate(flags, cols.flags), cols.flags)
 	if selected {
-		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, colStep)+fuel+flagText+spk, s.w-colMark))
+		return s.st.Accent.Render(selMark) + s.st.Selected.Render(truncate(num+pad(step, cols.step)+fuel+flagText+spk, s.w-colMark))
 	}
 	flagCell := flagText
 	if len(all) > 0 {
 		flagCell = s.st.Flag.Render(flagCell)
 	}
-	return truncate(noMark+num+stepStyle.Render(pad(step, colStep))+fuel+flagCell+s.st.Accent.Render(spk), s.w)
+	return truncate(noMark+num+stepStyle.Render(pad(step, cols.step))+fuel+flagCell+s.st.Accent.Render(spk), s.w)
 }
 
 // sparkFor returns the tail's sparkline of width w, drawn once per data and

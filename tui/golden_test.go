@@ -26,6 +26,7 @@ func TestGoldenScreens(t *testing.T) {
 	}{
 		{"fleet", []step{{"", "flagged"}}},
 		{"tail", []step{openTail}},
+		{"tail-factor", []step{openTail, {"f", "fuel factor %"}}},
 		// Timers are instant in tests, so the replay runs to its end at once.
 		{"flight", []step{openTail, {"down", ""}, {"enter", "at the end"}}},
 		{"cruise", []step{openTail, {"tab", "no flight"}, {"tab", "max range M"}}},

@@ -51,3 +51,12 @@ var (
 	keyWorkNext   = key.NewBinding(key.WithKeys("right", "tab"), key.WithHelp("→", "next status"))
 	keyWorkPrev   = key.NewBinding(key.WithKeys("left", "shift+tab"), key.WithHelp("←", "previous status"))
 )
+
+// Keys of the fuel factor: on the Fleet screen (a store's data only) the
+// factor key opens the form that approves or rejects the selected tail's
+// proposal (its keys are the work form's); on the Tail screen it turns the
+// top chart to the fuel factor and back.
+var (
+	keyFactor      = key.NewBinding(key.WithKeys("f"), key.WithHelp("f", "fuel factor"))
+	keyFactorChart = key.NewBinding(key.WithKeys("f"), key.WithHelp("f", "fuel factor chart"))
+)

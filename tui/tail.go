@@ -11,6 +11,7 @@ import (
 	"github.com/charmbracelet/lipgloss"
 
 	"dragdeck/feed"
+	"dragdeck/feed/store"
 	"dragdeck/model"
 )
 
@@ -21,7 +22,7 @@ type openFlightMsg struct {
 }
 
 type tailKeys struct {
-	Up, Down, Open, ZoomIn, ZoomOut, Left, Right key.Binding
+	Up, Down, Open, ZoomIn, ZoomOut, Left, Right, Factor key.Binding
 }
 
 var tailKeyMap = tailKeys{
@@ -31,6 +32,7 @@ var tailKeyMap = tailKeys{
 	ZoomOut: key.NewBinding(key.WithKeys("-"), key.WithHelp("-", "zoom out")),
 	Left:    key.NewBinding(key.WithKeys("left", "h"), key.WithHelp("←/h", "earlier")),
 	Right:   key.NewBinding(key.WithKeys("right", "l"), key.WithHelp("→/l", "later")),
+	Factor:  keyFactorChart,
 }
 
 // tailScreen shows one tail: when its drag rose, why it is flagged, what it
@@ -48,7 +50,14 @@ type tailScreen struct {
 	// the chart's time window: the last `window` days ending `back` days
 	// before the last flight
 	window, back float64
-	view         string
+	// the top chart shows the fuel factor instead of the drag deviation;
+	// the store's factor history of the tail and its open proposals (nil
+	// without a store)
+	factorView bool
+	factorHist []store.FactorSetting
+	factorOpen map[string]store.Proposal
+	factorErr  error
+	view       string
 }
 
 func newTailScreen(st Styles) *tailScreen {
@@ -66,11 +75,11 @@ func (s *tailScreen) Title() string { return "Tail" }
 func (s *tailScreen) Init() tea.Cmd { return nil }
 
 func (s *tailScreen) ShortHelp() []key.Binding {
-	return []key.Binding{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open, tailKeyMap.ZoomIn, tailKeyMap.ZoomOut}
+	return []key.Binding{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open, tailKeyMap.ZoomIn, tailKeyMap.ZoomOut, tailKeyMap.Factor}
 }
 
 func (s *tailScreen) FullHelp() [][]key.Binding {
-	return [][]key.Binding{{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open}, {tailKeyMap.ZoomIn, tailKeyMap.ZoomOut, tailKeyMap.Left, tailKeyMap.Right}}
+	return [][]key.Binding{{tailKeyMap.Up, tailKeyMap.Down, tailKeyMap.Open}, {tailKeyMap.ZoomIn, tailKeyMap.ZoomOut, tailKeyMap.Left, tailKeyMap.Right, tailKeyMap.Factor}}
 }
 
 func (s *tailScreen) SetData(d *Data) { s.data = d }
@@ -88,12 +97,33 @@ func (s *tailScreen) SetTail(name string) {
 	if s.ok {
 		s.polar = s.data.PolarPoints(name, true)
 	}
+	s.loadFactors()
 	s.render()
 }
 
 func (s *tailScreen) SetSize(w, h int) {
 	s.w, s.h = w, h
 	s.render()
+}
+
+// loadFactors reads the tail's factor history and the open proposals from
+// the store (an error leaves them empty and is shown in the facts).
+func (s *tailScreen) loadFactors() {
+	s.factorHist, s.factorOpen, s.factorErr = nil, nil, nil
+	if !s.ok || s.data.Factors == nil {
+		return
+	}
+	h, err := s.data.Factors.History()
+	if err != nil {
+		s.factorErr = err
+		return
+	}
+	o, err := s.data.Factors.Open()
+	if err != nil {
+		s.factorErr = err
+		return
+	}
+	s.factorHist, s.factorOpen = h[s.a.Tail], o
 }
 
 // flightAt returns the i-th flight, newest first.
@@ -124,6 +154,8 @@ func (s *tailScreen) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		s.back = math.Min(total-s.window, s.back+s.window/4)
 	case key.Matches(km, tailKeyMap.Right):
 		s.back = math.Max(0, s.back-s.window/4)
+	case key.Matches(km, tailKeyMap.Factor):
+		s.factorView = !s.factorView
 	case key.Matches(km, tailKeyMap.Open):
 		f, ok := s.flightAt(s.cursor)
 		if !ok {
@@ -183,7 +215,12 @@ func (s *tailScreen) render() {
 	avail := max(2, s.h-1-(rows+1))
 	devH := avail * 55 / 100
 	lowH := avail - devH
-	dev := s.deviationChart(s.w, devH)
+	var dev string
+	if s.factorView {
+		dev = s.factorChart(s.w, devH)
+	} else {
+		dev = s.deviationChart(s.w, devH)
+	}
 	leftW := s.w * 45 / 100
 	polar := s.polarChart(leftW, lowH)
 	facts := s.facts(s.w-leftW-1, lowH)
@@ -259,7 +296,7 @@ func (s *tailScreen) deviationChart(w, h int) string {
 	}
 	legend := s.st.Muted.Render("drag deviation per flight, % · ") + s.st.Accent.Render("rolling median") + " · " + engine +
 		s.st.Drift.Render("drift") + " · " + s.st.Flag.Render("step up") + " · " + s.st.Improve.Render("step down") + " · " +
-		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→)", s.window))
+		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→) · f: fuel factor", s.window))
 	return truncate(legend, w) + "\n" + spec.render("no flights in this window")
 }
 
@@ -329,6 +366,7 @@ func (s *tailScreen) facts(w, h int) string {
 		add(style, "step   %s %s ± %.2f pp%s", st.Time.Format("2006-01-02"), fmtSigned(st.SizePct, 2), st.SE, ev)
 	}
 	add(s.st.Text, "cost   %s t fuel · %s t CO2 a year", fmtSigned(a.ExcessFuel/1000, 0), fmtSigned(a.CO2/1000, 0))
+	add(s.st.Plan, "%s", s.factorFact())
 	if e, ok := s.data.EngineTail(a.Tail); ok {
 		flags := strings.Join(e.Flags, " ")
 		if flags == "" {

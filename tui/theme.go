@@ -15,6 +15,7 @@ type Theme struct {
 	Wave    lipgloss.AdaptiveColor // wave drag
 	Limit   lipgloss.AdaptiveColor // beyond a limit: buffet margin, thrust
 	Engine  lipgloss.AdaptiveColor // the engine series (thrust from fan speed)
+	Plan    lipgloss.AdaptiveColor // the fuel factor in use and proposed for flight planning
 }
 
 // DefaultTheme is dragdeck's own palette.
@@ -30,12 +31,14 @@ var DefaultTheme = Theme{
 	Wave:    lipgloss.AdaptiveColor{Light: "#1b7c83", Dark: "#39c5cf"},
 	Limit:   lipgloss.AdaptiveColor{Light: "#bf3989", Dark: "#f778ba"},
 	Engine:  lipgloss.AdaptiveColor{Light: "#6b6b00", Dark: "#d7d75f"},
+	Plan:    lipgloss.AdaptiveColor{Light: "#3e4b9e", Dark: "#8c9eff"},
 }
 
 // Styles are every style the screens use, derived from a Theme.
 type Styles struct {
 	Title, Tab, TabActive, Header, Muted, Text, Selected           lipgloss.Style
 	Flag, Improve, Drift, Event, Base, Accent, Wave, Limit, Engine lipgloss.Style
+	Plan                                                           lipgloss.Style
 	Box, Help                                                      lipgloss.Style
 }
 
@@ -59,6 +62,7 @@ func NewStyles(t Theme) Styles {
 		Wave:      s.Foreground(t.Wave),
 		Limit:     s.Foreground(t.Limit).Bold(true),
 		Engine:    s.Foreground(t.Engine),
+		Plan:      s.Foreground(t.Plan).Bold(true),
 		Box:       s.Border(lipgloss.RoundedBorder()).BorderForeground(t.Muted).Padding(0, 1),
 		Help:      s.Foreground(t.Muted),
 	}

@@ -52,6 +52,7 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 	events := fs.str("events", "FILE", "", "events file (time,tail,kind,note)")
 	storePath := fs.storeFlag()
 	trend := trendFlags(fs)
+	policyOf := factorFlags(fs)
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
@@ -67,6 +68,9 @@ the background. The trend settings and limits are those of 'dragdeck report'.`,
 		return err
 	}
 	defer in.close()
+	if in.policy, err = policyOf(in.roster); err != nil {
+		return err
+	}
 	setMemoryLimit(in, dashBytesPerByte)
 	progress := &atomic.Int64{}
 	load := func() (*tui.Data, error) { return dashData(in, c, progress) }
@@ -97,6 +101,7 @@ func dashData(in *input, c model.TrendConfig, progress *atomic.Int64) (*tui.Data
 			return nil, err
 		}
 		d.Work, d.Review = storeWork{in.store}, reviewMarks(rv)
+		d.Factors = storeFactors{st: in.store, r: r, by: defaultUser()}
 	}
 	return d, nil
 }
@@ -114,6 +119,68 @@ func (w storeWork) Open(tail, reason, flag string) (int64, error) {
 }
 
 func (w storeWork) Set(id int64, status, note string) error { return w.st.SetWork(id, status, note) }
+
+// storeFactors is the dashboard's fuel factors: the store's, with the
+// run's proposals, filed when a move is made on one.
+type storeFactors struct {
+	st *store.Store
+	r  *pipeline.Result
+	by string
+}
+
+func (b storeFactors) History() (map[string][]store.FactorSetting, error) {
+	h, err := b.st.FactorHistory("")
+	out := map[string][]store.FactorSetting{}
+	for _, f := range h {
+		out[f.Tail] = append(out[f.Tail], f)
+	}
+	return out, err
+}
+
+func (b storeFactors) Open() (map[string]store.Proposal, error) {
+	ps, err := b.st.Proposals("", "")
+	out := map[string]store.Proposal{}
+	for _, p := range ps { // oldest first: the latest open one stays
+		if p.Status == store.FactorProposed || p.Status == store.FactorApproved {
+			out[p.Tail] = p
+		}
+	}
+	return out, err
+}
+
+// Decide files the run's proposal when id is 0, then moves it.
+func (b storeFactors) Decide(tail string, id int64, status, note string) (string, error) {
+	if id == 0 {
+		f, ok := b.r.Factor(tail)
+		if !ok || !f.Proposal.Proposed {
+			return "", fmt.Errorf("%s has no proposal in this run", tail)
+		}
+		p := f.StoreProposal(tail)
+		if _, _, err := b.st.FileProposals([]store.Proposal{p}, b.by); err != nil {
+			return "", err
+		}
+		ps, err := b.st.Proposals(p.Period, "")
+		if err != nil {
+			return "", err
+		}
+		for _, q := range ps {
+			if q.Tail == tail {
+				id = q.ID
+			}
+		}
+		if id == 0 {
+			return "", fmt.Errorf("%s: the proposal was not filed", tail)
+		}
+	}
+	if err := b.st.MoveProposal(id, status, b.by, note); err != nil {
+		return "", err
+	}
+	msg := fmt.Sprintf("proposal #%d of %s %s", id, tail, status)
+	if status == store.FactorApproved {
+		msg += "; put it in use with 'dragdeck factor apply'"
+	}
+	return msg, nil
+}
 
 // reviewMarks is the review's changes as the Fleet screen marks them.
 func reviewMarks(rv reviewJSON) *tui.ReviewMarks {

@@ -20,8 +20,7 @@ const factorUsage = "dragdeck factor [--store FILE] propose | list [--period P] 
 	"export --out FILE [--format csv|json] | backtest [PATH...]"
 
 // factorCaution stands beside every proposal and export.
-const factorCaution = "A fuel factor here is an engineering proposal for the operator's approved\n" +
-	"process, not approved performance data."
+const factorCaution = model.FactorCaution
 
 func runFactor(e *env, args []string) error {
 	fs := newFlagSet("factor", factorUsage,
@@ -291,14 +290,9 @@ func factorPropose(e *env, st *store.Store, r *pipeline.Result, by string, asJSO
 	}
 	sort.Strings(tails)
 	for _, t := range tails {
-		f := r.Factors[t]
-		pr := f.Proposal
-		if !pr.Proposed {
-			continue
+		if f := r.Factors[t]; f.Proposal.Proposed {
+			ps = append(ps, f.StoreProposal(t))
 		}
-		ps = append(ps, store.Proposal{Tail: t, Type: pr.Type, Period: pr.Period, ProposedPct: pr.TargetPct, InUsePct: pr.InUsePct,
-			MonitoredPct: pr.Level.Pct, LoPct: pr.Level.Lo, HiPct: pr.Level.Hi, Flights: pr.Level.Flights, PlanFuel: f.PlanFuel,
-			NeedsNote: pr.NeedsNote, SecondLook: pr.SecondLook})
 	}
 	filed, kept, err := st.FileProposals(ps, by)
 	if err != nil {

@@ -5,6 +5,7 @@ import (
 	"sort"
 	"time"
 
+	"dragdeck/feed/store"
 	"dragdeck/model"
 )
 
@@ -31,6 +32,15 @@ type TailFactor struct {
 func (r *Result) Factor(tail string) (TailFactor, bool) {
 	f, ok := r.Factors[tail]
 	return f, ok
+}
+
+// StoreProposal is the tail's proposal as the store files it (meaningful
+// when Proposal.Proposed).
+func (f TailFactor) StoreProposal(tail string) store.Proposal {
+	pr := f.Proposal
+	return store.Proposal{Tail: tail, Type: pr.Type, Period: pr.Period, Status: store.FactorProposed,
+		ProposedPct: pr.TargetPct, InUsePct: pr.InUsePct, MonitoredPct: pr.Level.Pct, LoPct: pr.Level.Lo, HiPct: pr.Level.Hi,
+		Flights: pr.Level.Flights, PlanFuel: f.PlanFuel, NeedsNote: pr.NeedsNote, SecondLook: pr.SecondLook}
 }
 
 // tailFactor computes a tail's fuel factor from its points (time order),

@@ -1,0 +1,162 @@
+package tui
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/charmbracelet/bubbles/cursor"
+	"github.com/charmbracelet/bubbles/key"
+	"github.com/charmbracelet/bubbles/textinput"
+	tea "github.com/charmbracelet/bubbletea"
+
+	"dragdeck/feed/pipeline"
+	"dragdeck/feed/store"
+	"dragdeck/model"
+)
+
+// FactorBook is the store's fuel factors as the dashboard uses them: the
+// factor history the Tail screen draws, the proposals still open, and the
+// one move the factor key makes, written to the store at once. The
+// dashboard has one only when its data come from a store.
+type FactorBook interface {
+	// History is each tail's factor history, in the order it takes effect.
+	History() (map[string][]store.FactorSetting, error)
+	// Open is each tail's latest proposal that is proposed or approved.
+	Open() (map[string]store.Proposal, error)
+	// Decide moves proposal id of the tail to status with a note (id 0:
+	// the run's proposal, filed first) and says what it did.
+	Decide(tail string, id int64, status, note string) (string, error)
+}
+
+// factorCaution is the caution on one line, beside every proposal.
+var factorCaution = strings.ReplaceAll(model.FactorCaution, "\n", " ")
+
+// shownProposal is the proposal the dashboard shows for a tail: the
+// store's open one unless the run's is of a later period (filing it
+// supersedes the store's), else the run's (id 0, not filed yet). ok is
+// false when there is neither.
+func shownProposal(f pipeline.TailFactor, open map[string]store.Proposal, tail string) (p store.Proposal, ok bool) {
+	sp, filed := open[tail]
+	run := f.Proposal
+	if filed && (!run.Proposed || sp.Period >= run.Period) {
+		return sp, true
+	}
+	if !run.Proposed {
+		return store.Proposal{}, false
+	}
+	return f.StoreProposal(tail), true
+}
+
+// factorCell is the Fleet screen's factor column: the factor in use ("-"
+// when none was ever set), then "→" and the proposed factor when there is
+// a proposal, marked ✓ when approved and ! when it needs a note or a
+// second look; so it reads without colour. Compact, a proposal shows
+// without the factor in use.
+func factorCell(f pipeline.TailFactor, p store.Proposal, hasProposal, compact bool) string {
+	use := "-"
+	if f.InUse {
+		use = fmtSigned(f.Proposal.InUsePct, 1)
+	}
+	if !hasProposal {
+		return use
+	}
+	if compact {
+		use = ""
+	}
+	mark := ""
+	switch {
+	case p.Status == store.FactorApproved:
+		mark = "✓"
+	case p.NeedsNote || p.SecondLook:
+		mark = "!"
+	}
+	return use + "→" + fmtSigned(p.ProposedPct, 1) + mark
+}
+
+// factorForm approves or rejects a tail's proposal with a note: the Fleet
+// screen's form behind the factor key, a sibling of the work form.
+type factorForm struct {
+	tail    string
+	prop    store.Proposal // ID 0: the run's, filed on saving
+	choices []string       // the statuses the proposal may move to here
+	choice  int
+	text    textinput.Model
+}
+
+func newFactorForm(tail string, p store.Proposal) *factorForm {
+	ti := textinput.New()
+	ti.CharLimit = 200
+	ti.Cursor.SetMode(cursor.CursorStatic)
+	ti.Prompt = "note: "
+	f := &factorForm{tail: tail, prop: p, text: ti}
+	if p.Status == store.FactorApproved {
+		// applying needs an effective date: the factor command's apply
+		f.choices = []string{store.FactorRejected}
+	} else {
+		f.choices = []string{store.FactorApproved, store.FactorRejected}
+	}
+	f.text.Focus()
+	return f
+}
+
+// update handles a key: done is set when the form is to be saved or
+// dropped (save says which).
+func (f *factorForm) update(km tea.KeyMsg) (done, save bool, cmd tea.Cmd) {
+	switch {
+	case key.Matches(km, keyWorkSave):
+		return true, true, nil
+	case key.Matches(km, keyWorkCancel):
+		return true, false, nil
+	case key.Matches(km, keyWorkNext):
+		f.choice = (f.choice + 1) % len(f.choices)
+		return false, false, nil
+	case key.Matches(km, keyWorkPrev):
+		f.choice = (f.choice + len(f.choices) - 1) % len(f.choices)
+		return false, false, nil
+	}
+	f.text, cmd = f.text.Update(km)
+	return false, false, cmd
+}
+
+// save makes the move in the store and says what it did.
+func (f *factorForm) save(b FactorBook) (string, error) {
+	return b.Decide(f.tail, f.prop.ID, f.choices[f.choice], strings.TrimSpace(f.text.Value()))
+}
+
+// factorFormLines is the number of lines the form takes.
+const factorFormLines = 4
+
+// view is the form's lines: the proposal, the choices, the note and the
+// caution.
+func (f *factorForm) view(st Styles, w int) string {
+	p := f.prop
+	head := fmt.Sprintf("fuel factor %s %s: %s → %s %%", clean(f.tail), p.Period, fmtSigned(p.InUsePct, 1), fmtSigned(p.ProposedPct, 1))
+	basis := fmt.Sprintf(" · monitored %s %% [%s, %s] over %d flights", fmtSigned(p.MonitoredPct, 2), fmtSigned(p.LoPct, 2), fmtSigned(p.HiPct, 2), p.Flights)
+	var marks []string
+	if p.NeedsNote {
+		marks = append(marks, "outside the policy's range: approve with a note")
+	}
+	if p.SecondLook {
+		marks = append(marks, "a large change: second look")
+	}
+	line1 := st.Accent.Render(head) + st.Muted.Render(basis)
+	if len(marks) > 0 {
+		line1 += " " + st.Flag.Render("! "+strings.Join(marks, "; "))
+	}
+	var opts []string
+	for i, c := range f.choices {
+		label := map[string]string{store.FactorApproved: "approve", store.FactorRejected: "reject"}[c]
+		if i == f.choice {
+			opts = append(opts, st.Selected.Render("["+label+"]"))
+		} else {
+			opts = append(opts, " "+label+" ")
+		}
+	}
+	status := "proposed → "
+	if p.Status == store.FactorApproved {
+		status = "approved (apply: dragdeck factor apply) → "
+	}
+	line2 := st.Muted.Render(status) + strings.Join(opts, "") + st.Muted.Render(" ←/→ choose · enter saves · esc drops")
+	return truncate(line1, w) + "\n" + truncate(line2, w) + "\n" + truncate(f.text.View(), w) + "\n" +
+		st.Muted.Render(truncate(factorCaution, w))
+}
