@@ -8,6 +8,7 @@ import (
 	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/bubbles/textinput"
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
 
 	"dragdeck/feed/pipeline"
 	"dragdeck/feed/store"
@@ -123,26 +124,13 @@ func (f *factorForm) save(b FactorBook) (string, error) {
 	return b.Decide(f.tail, f.prop.ID, f.choices[f.choice], strings.TrimSpace(f.text.Value()))
 }
 
-// factorFormLines is the number of lines the form takes.
-const factorFormLines = 4
-
-// view is the form's lines: the proposal, the choices, the note and the
-// caution.
+// view is the form's lines, each wrapped at w: the proposal and what it
+// rests on, the choices, the note, and the caution in full.
 func (f *factorForm) view(st Styles, w int) string {
 	p := f.prop
+	wrap := lipgloss.NewStyle().Width(max(1, w))
 	head := fmt.Sprintf("fuel factor %s %s: %s → %s %%", clean(f.tail), p.Period, fmtSigned(p.InUsePct, 1), fmtSigned(p.ProposedPct, 1))
-	basis := fmt.Sprintf(" · monitored %s %% [%s, %s] over %d flights", fmtSigned(p.MonitoredPct, 2), fmtSigned(p.LoPct, 2), fmtSigned(p.HiPct, 2), p.Flights)
-	var marks []string
-	if p.NeedsNote {
-		marks = append(marks, "outside the policy's range: approve with a note")
-	}
-	if p.SecondLook {
-		marks = append(marks, "a large change: second look")
-	}
-	line1 := st.Accent.Render(head) + st.Muted.Render(basis)
-	if len(marks) > 0 {
-		line1 += " " + st.Flag.Render("! "+strings.Join(marks, "; "))
-	}
+	basis := fmt.Sprintf(" · monitored %s [%s, %s] %%, %d flights", fmtSigned(p.MonitoredPct, 2), fmtSigned(p.LoPct, 2), fmtSigned(p.HiPct, 2), p.Flights)
 	var opts []string
 	for i, c := range f.choices {
 		label := map[string]string{store.FactorApproved: "approve", store.FactorRejected: "reject"}[c]
@@ -156,7 +144,13 @@ func (f *factorForm) view(st Styles, w int) string {
 	if p.Status == store.FactorApproved {
 		status = "approved (apply: dragdeck factor apply) → "
 	}
-	line2 := st.Muted.Render(status) + strings.Join(opts, "") + st.Muted.Render(" ←/→ choose · enter saves · esc drops")
-	return truncate(line1, w) + "\n" + truncate(line2, w) + "\n" + truncate(f.text.View(), w) + "\n" +
-		st.Muted.Render(truncate(factorCaution, w))
+	line2 := st.Muted.Render(status) + strings.Join(opts, "")
+	if p.NeedsNote {
+		line2 += " " + st.Flag.Render("! outside the policy's range: approve with a note")
+	}
+	if p.SecondLook {
+		line2 += " " + st.Flag.Render("! a large change: second look")
+	}
+	return wrap.Render(st.Accent.Render(head)+st.Muted.Render(basis)) + "\n" + wrap.Render(line2) + "\n" +
+		truncate(f.text.View(), w) + "\n" + wrap.Render(st.Muted.Render(factorCaution))
 }

@@ -388,7 +388,7 @@ func (s *fleetScreen) footLines() int {
 	case s.form != nil:
 		return 2
 	case s.fform != nil:
-		return factorFormLines
+		return strings.Count(s.fform.view(s.st, s.w), "\n") + 1
 	case s.notice != "":
 		return 1
 	}
@@ -413,6 +413,7 @@ const (
 	colPlan  = 11 // the fuel factor in use → proposed, "+0.5→+2.4✓"
 	colPlanC = 8  // compact: the proposed factor, "→+2.4✓", or the one in use
 	minSpark = 6  // a narrower sparkline is left out
+	minFlags = 10 // narrower flags leave out the last step's column
 )
 
 // fleetCols are the widths of the columns that depend on the data and the
@@ -420,7 +421,8 @@ const (
 // level (0 when no tail has an engine series), the flags and the
 // sparkline (0 when it does not fit: the flags then take what is left).
 // When the flags would not get their width, the screen is compact: the
-// last step shows its month and the factor column the proposal alone.
+// last step shows its month and the factor column the proposal alone;
+// narrower still, the last step is left out.
 type fleetCols struct {
 	typ, eng, work, flags, spark, step, plan int
 	compact                                  bool
@@ -442,6 +444,12 @@ func (s *fleetScreen) cols() fleetCols {
 	fixed := fixedOf()
 	if s.w-fixed < colFlags {
 		c.compact, c.step, c.plan = true, colStepC, colPlanC
+		fixed = fixedOf()
+	}
+	if s.w-fixed < minFlags {
+		// the flags matter more than the step's month, which the step
+		// flag and the Tail screen tell
+		c.step = 0
 		fixed = fixedOf()
 	}
 	c.spark = s.w - fixed - colFlags - 1

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"os"
@@ -149,7 +150,7 @@ Each move is one transaction; a move the states do not allow is refused
 			return err
 		}
 		if err := st.MoveProposals(ids, to, who, *note); err != nil {
-			return usageErrorf("%s: %v (nothing was moved)", verb, err)
+			return usageErrorf("%s: %v (%snothing was moved)", verb, err, noteHint(err))
 		}
 		return factorMoved(e, ids, to, *asJSON)
 	case "apply":
@@ -188,7 +189,7 @@ Each move is one transaction; a move the states do not allow is refused
 		}
 		id, err := st.SetFactor(rest[0], pct, eff, who, *note)
 		if err != nil {
-			return usageErrorf("set: %v", err)
+			return usageErrorf("set: %v (%snothing was set)", err, noteHint(err))
 		}
 		if *asJSON {
 			return writeJSON(e.stdout, map[string]any{"id": id, "tail": rest[0], "factor_pct": pct, "effective": eff.Format(time.RFC3339)})
@@ -315,6 +316,14 @@ func factorPropose(e *env, st *store.Store, r *pipeline.Result, by string, asJSO
 	fmt.Fprintln(e.stdout)
 	writeProposals(e, all)
 	return nil
+}
+
+// noteHint tells how to give the note a refused move lacked.
+func noteHint(err error) string {
+	if errors.Is(err, store.ErrNeedsNote) {
+		return "--note: why; "
+	}
+	return ""
 }
 
 func oneLine(s string) string { return strings.ReplaceAll(s, "\n", " ") }

@@ -202,7 +202,7 @@ func moveProposal(tx *sql.Tx, id int64, status, by, note string, now int64) erro
 	}
 	switch {
 	case status == FactorRejected && note == "":
-		return fmt.Errorf("proposal %d: a rejection %w (--note: why)", id, ErrNeedsNote)
+		return fmt.Errorf("proposal %d: a rejection %w", id, ErrNeedsNote)
 	case status == FactorApproved && needsNote && note == "":
 		return fmt.Errorf("proposal %d is outside the policy's range and %w to be approved (--note: why)", id, ErrNeedsNote)
 	}
@@ -259,7 +259,7 @@ func (s *Store) SetFactor(tail string, pct float64, effective time.Time, by, not
 	case math.IsNaN(pct) || math.IsInf(pct, 0) || math.Abs(pct) > 50:
 		return 0, fmt.Errorf("factor %g %%: must be −50 … +50", pct)
 	case note == "":
-		return 0, fmt.Errorf("a factor set by hand %w (--note: why)", ErrNeedsNote)
+		return 0, fmt.Errorf("a factor set by hand %w", ErrNeedsNote)
 	}
 	r, err := s.db.Exec("INSERT INTO factor_history (tail, pct, effective, set_by, why, proposal, recorded) VALUES (?,?,?,?,?,NULL,?)",
 		tail, pct, effective.UTC().UnixNano(), by, note, s.now().UnixNano())
