@@ -278,3 +278,31 @@ func TestTailFactorChart(t *testing.T) {
 		t.Error("f again should bring the drag chart back")
 	}
 }
+
+// Narrow, the Fleet screen gives up the last step's date, then the step
+// column, before it squeezes the flags below their width; the factor
+// column stays.
+func TestFleetNarrowKeepsFlags(t *testing.T) {
+	d, _, _, _ := withFactors(t)
+	d.Work = &fakeWork{}
+	cases := []struct {
+		name     string
+		w        int
+		wantStep bool
+	}{
+		{"wide", 140, true},
+		{"80 columns with a store", 80, false},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			m := sized(d, c.w, 30)
+			cols := m.fleet.cols()
+			if cols.flags < minFlags || cols.plan == 0 {
+				t.Errorf("flags %d wide (want ≥ %d), factor %d", cols.flags, minFlags, cols.plan)
+			}
+			if got := strings.Contains(m.View(), "last step"); got != c.wantStep {
+				t.Errorf("last step shown %v, want %v:\n%s", got, c.wantStep, m.View())
+			}
+		})
+	}
+}
