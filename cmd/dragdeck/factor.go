@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"os"
+	"os/user"
 	"sort"
 	"strconv"
 	"strings"
@@ -222,6 +223,9 @@ Each move is one transaction; a move the states do not allow is refused
 			return usageErrorf("--out: %v", err)
 		}
 		fmt.Fprintf(e.stderr, "dragdeck factor: %d factor(s) in use written to %s\n", len(rows), *out)
+		if *format == "csv" { // the JSON holds the caution; a CSV has no place for it
+			fmt.Fprintf(e.stderr, "dragdeck factor: %s\n", oneLine(factorCaution))
+		}
 		if n := len(r.Fleet.Tails) - len(rows); n > 0 {
 			fmt.Fprintf(e.stderr, "dragdeck factor: %d tail(s) with data have no factor in use and are not in the file ('dragdeck factor set' or apply a proposal)\n", n)
 		}
@@ -231,8 +235,13 @@ Each move is one transaction; a move the states do not allow is refused
 
 // defaultUser is who makes a move when --by is not given.
 func defaultUser() string {
-	if u := os.Getenv("USER"); u != "" {
-		return u
+	for _, v := range []string{"USER", "LOGNAME", "USERNAME"} {
+		if u := strings.TrimSpace(os.Getenv(v)); u != "" {
+			return u
+		}
+	}
+	if u, err := user.Current(); err == nil && u.Username != "" {
+		return u.Username
 	}
 	return "unknown"
 }
