@@ -264,14 +264,9 @@ func (s *tailScreen) deviationChart(w, h int) string {
 		}
 	}
 	lo, hi := span(ys, 0.05, 0.5)
-	spec := chartSpec{w: w, h: h - 1, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
-		xTicks: dateTicks(start, end, max(1, w/8), x),
-		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
-		axis:   s.st.Muted,
-		series: []series{
-			{points: pts, style: s.st.Muted},
-			{points: med, line: true, style: s.st.Accent},
-		}}
+	spec := s.timeChart(w, h-1, start, end, lo, hi, x,
+		series{points: pts, style: s.st.Muted},
+		series{points: med, line: true, style: s.st.Accent})
 	if !math.IsNaN(a.Drift.Slope) {
 		spec.series = append(spec.series, series{line: true, style: s.st.Drift, points: [][2]float64{
 			{x(a.DriftFrom), a.DriftAt(a.DriftFrom)}, {x(a.DriftTo), a.DriftAt(a.DriftTo)}}})
@@ -298,6 +293,15 @@ func (s *tailScreen) deviationChart(w, h int) string {
 		s.st.Drift.Render("drift") + " · " + s.st.Flag.Render("step up") + " · " + s.st.Improve.Render("step down") + " · " +
 		s.st.Event.Render("event") + s.st.Muted.Render(fmt.Sprintf(" · %.0f days (+/-, ←/→) · f: fuel factor", s.window))
 	return truncate(legend, w) + "\n" + spec.render("no flights in this window")
+}
+
+// timeChart is a chart of per cent against time over start … end, with
+// month ticks: the Tail screen's top charts.
+func (s *tailScreen) timeChart(w, h int, start, end time.Time, lo, hi float64, x func(time.Time) float64, ser ...series) chartSpec {
+	return chartSpec{w: w, h: h, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
+		xTicks: dateTicks(start, end, max(1, w/8), x),
+		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
+		axis:   s.st.Muted, series: ser}
 }
 
 // polarChart is the tail's usable snapshots of its current segment as CD −

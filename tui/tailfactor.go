@@ -77,16 +77,11 @@ func (s *tailScreen) factorChart(w, h int) string {
 		ys = append(ys, p.ProposedPct)
 	}
 	lo, hi := span(ys, 0.08, 0.5)
-	spec := chartSpec{w: w, h: h - 1, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
-		xTicks: dateTicks(start, end, max(1, w/8), x),
-		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
-		axis:   s.st.Muted,
-		series: []series{
-			{points: band, style: s.st.Muted},
-			{points: mon, line: true, style: s.st.Accent},
-			{points: use, line: true, style: s.st.Plan},
-			{points: prop, style: s.st.Flag},
-		}}
+	spec := s.timeChart(w, h-1, start, end, lo, hi, x,
+		series{points: band, style: s.st.Muted},
+		series{points: mon, line: true, style: s.st.Accent},
+		series{points: use, line: true, style: s.st.Plan},
+		series{points: prop, style: s.st.Flag})
 	for _, t := range f.Restarts {
 		spec.marks = append(spec.marks, vmark{x: x(t), style: s.st.Event})
 	}

@@ -575,13 +575,9 @@ func writeReportTable(w io.Writer, r *pipeline.Result, in *input) {
 	}
 	tw.Flush()
 	if len(why) > 0 {
-		fmt.Fprintf(w, "\nNo recent level (shown as -):\n")
-		for _, s := range why {
-			for _, line := range wrapWords(s, 80-2, 2) {
-				fmt.Fprintf(w, "  %s\n", line)
-			}
-		}
+		fmt.Fprintln(w)
 	}
+	writeWhy(w, "No recent level (shown as -):", why)
 	if in.store != nil {
 		writeWorkInProgress(w, f.Tails, in.work)
 	}
@@ -677,5 +673,19 @@ func writeWorkInProgress(w io.Writer, tails []model.TailAssessment, work map[str
 	sort.Strings(rest)
 	for _, tail := range rest { // items of tails without data in this report
 		show(tail)
+	}
+}
+
+// writeWhy lists why some rows show "-": a title, then one wrapped
+// reason a tail; nothing when there are none.
+func writeWhy(w io.Writer, title string, why []string) {
+	if len(why) == 0 {
+		return
+	}
+	fmt.Fprintln(w, title)
+	for _, s := range why {
+		for _, line := range wrapWords(s, 80-2, 2) {
+			fmt.Fprintf(w, "  %s\n", line)
+		}
 	}
 }

@@ -145,14 +145,7 @@ func writeFactorTable(w io.Writer, r *pipeline.Result, withStore bool) {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\n", a.Tail, use, mon, flights, prop, plan)
 	}
 	tw.Flush()
-	if len(why) > 0 {
-		fmt.Fprintln(w, "No monitored factor (shown as -):")
-		for _, s := range why {
-			for _, line := range wrapWords(s, 80-2, 2) {
-				fmt.Fprintf(w, "  %s\n", line)
-			}
-		}
-	}
+	writeWhy(w, "No monitored factor (shown as -):", why)
 	p := r.Policy
 	fmt.Fprintf(w, "monitored: median per-flight fuel-flow deviation of the last %g days (from\n"+
 		"the last step or event when later), at least %d flights. proposed: rounded to\n"+
