@@ -30,24 +30,42 @@ import (
 
 // FactorSeries returns the per-flight series of the fuel factor of a
 // tail's points (in time order): the usable points under c, grouped into
-// flights as the trend groups them (Flights), each flight's value the
-// median fuel-flow deviation of its snapshots. buf, when not nil, is a
-// buffer for the points, kept for the next call.
-func FactorSeries(pts []TrendPoint, c *TrendConfig, buf *[]TrendPoint) []FlightPoint {
-	var b []TrendPoint
+// flights as the trend groups them (Flights: a new flight when the flight
+// changes or the gap from the usable point before exceeds c.FlightGap),
+// each flight's value the median fuel-flow deviation of its snapshots.
+// buf, when not nil, is a buffer for the flights, kept for the next call
+// (the result then lives in it).
+func FactorSeries(pts []TrendPoint, c *TrendConfig, buf *[]FlightPoint) []FlightPoint {
+	var out []FlightPoint
 	if buf != nil {
-		b = (*buf)[:0]
+		out = (*buf)[:0]
 	}
-	for _, p := range pts {
-		if c.Usable(p) == "" && !math.IsNaN(p.FuelFlowDevPct) {
-			p.DevPct = p.FuelFlowDevPct
-			b = append(b, p)
+	var vals [64]float64
+	devs := vals[:0]
+	start := -1 // the flight's first usable point
+	prev := -1  // the usable point before
+	flush := func() {
+		if start >= 0 {
+			out = append(out, FlightPoint{UnixNano: pts[start].UnixNano, Flight: pts[start].Flight, DevPct: median(devs), N: int32(len(devs))})
 		}
 	}
-	if buf != nil {
-		*buf = b
+	for i := range pts {
+		p := &pts[i]
+		if math.IsNaN(p.FuelFlowDevPct) || c.Usable(*p) != "" {
+			continue
+		}
+		if prev < 0 || NextFlight(&pts[prev], p, c.FlightGap) {
+			flush()
+			start, devs = i, devs[:0]
+		}
+		devs = append(devs, p.FuelFlowDevPct)
+		prev = i
 	}
-	return Flights(b, c.FlightGap)
+	flush()
+	if buf != nil {
+		*buf = out
+	}
+	return out
 }
 
 // FactorLevel is the monitored fuel factor of a tail at one time: the
@@ -82,6 +100,12 @@ func DefaultFactorConfig() FactorConfig {
 // at or before at, when that is later. No level from fewer than
 // MinFlights flights; the reason names a restart that cut the window.
 func MonitorFactor(fl []FlightPoint, restarts []time.Time, at time.Time, c FactorConfig) FactorLevel {
+	return monitorFactor(fl, restarts, at, c, nil)
+}
+
+// monitorFactor is MonitorFactor with a buffer for the window's values,
+// kept for the next call (nil: a fresh one).
+func monitorFactor(fl []FlightPoint, restarts []time.Time, at time.Time, c FactorConfig, buf *[]float64) FactorLevel {
 	from := at.Add(-time.Duration(c.WindowDays * 24 * float64(time.Hour)))
 	var cut time.Time
 	for _, r := range restarts {
@@ -92,7 +116,11 @@ func MonitorFactor(fl []FlightPoint, restarts []time.Time, at time.Time, c Facto
 	lv := FactorLevel{At: at, From: from, Pct: math.NaN(), Lo: math.NaN(), Hi: math.NaN()}
 	lo := sort.Search(len(fl), func(i int) bool { return fl[i].UnixNano >= from.UnixNano() })
 	hi := sort.Search(len(fl), func(i int) bool { return fl[i].UnixNano > at.UnixNano() })
-	v := make([]float64, 0, max(hi-lo, 0))
+	var v []float64
+	if buf != nil {
+		v = (*buf)[:0]
+		defer func() { *buf = v }()
+	}
 	for _, f := range fl[lo:max(hi, lo)] {
 		v = append(v, f.DevPct)
 	}
@@ -122,20 +150,34 @@ func MedianInterval(v []float64, conf float64) (lo, hi float64) {
 	if n == 0 {
 		return math.NaN(), math.NaN()
 	}
-	b := distuv.Binomial{N: float64(n), P: 0.5}
-	alpha := (1 - conf) / 2
-	l := 0 // ranks from 1; 0: none qualifies
-	for k := 1; k <= (n+1)/2; k++ {
-		if b.CDF(float64(k-1)) <= alpha {
-			l = k
-		} else {
-			break
-		}
-	}
+	l := medianRank(n, conf)
 	if l == 0 {
 		return math.NaN(), math.NaN()
 	}
 	return v[l-1], v[n-l]
+}
+
+// medianRank is the rank l of MedianInterval (0 when none qualifies):
+// the largest k ≤ (n+1)/2 with P(B ≤ k − 1) ≤ (1 − conf)/2. The search
+// starts at the normal approximation n/2 − z √n / 2 and steps from there
+// (the CDF is monotone in k), a few CDF calls instead of n/2.
+func medianRank(n int, conf float64) int {
+	b := distuv.Binomial{N: float64(n), P: 0.5}
+	alpha := (1 - conf) / 2
+	ok := func(k int) bool { return b.CDF(float64(k-1)) <= alpha }
+	top := (n + 1) / 2
+	if top < 1 || !ok(1) {
+		return 0
+	}
+	z := distuv.UnitNormal.Quantile(1 - alpha)
+	k := max(1, min(top, int(float64(n)/2-z*math.Sqrt(float64(n))/2)))
+	for k > 1 && !ok(k) {
+		k--
+	}
+	for k < top && ok(k+1) {
+		k++
+	}
+	return k
 }
 
 // FactorHistory is the monitored factor at the end of each calendar month
@@ -147,12 +189,14 @@ func FactorHistory(fl []FlightPoint, restarts []time.Time, c FactorConfig) []Fac
 		return nil
 	}
 	first, last := fl[0].At(), fl[len(fl)-1].At()
-	var out []FactorLevel
+	months := (last.Year()-first.Year())*12 + int(last.Month()) - int(first.Month()) + 1
+	out := make([]FactorLevel, 0, max(months, 1))
+	var buf []float64
 	for end := MonthStart(first).AddDate(0, 1, 0); end.Before(last); end = end.AddDate(0, 1, 0) {
 		// the level of the month that ends at end, taken just before it
-		out = append(out, MonitorFactor(fl, restarts, end.Add(-time.Nanosecond), c))
+		out = append(out, monitorFactor(fl, restarts, end.Add(-time.Nanosecond), c, &buf))
 	}
-	return append(out, MonitorFactor(fl, restarts, last, c))
+	return append(out, monitorFactor(fl, restarts, last, c, &buf))
 }
 
 // MonthStart is the first instant of t's calendar month (UTC).

@@ -6,6 +6,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // flightsEvery makes a per-flight series: one flight every step from
@@ -181,6 +183,27 @@ func TestFactorSeriesIsFuelFlowDeviation(t *testing.T) {
 		v := []float64{pts[3*i].FuelFlowDevPct, pts[3*i+1].FuelFlowDevPct, pts[3*i+2].FuelFlowDevPct}
 		if want := Median(v); f.DevPct != want {
 			t.Errorf("flight %d: factor %.9f, want the median fuel-flow deviation %.9f", i, f.DevPct, want)
+		}
+	}
+}
+
+// The rank search from the normal approximation finds the rank the full
+// scan over every k finds, for every n from 1 to 400 at three levels.
+func TestMedianRankMatchesScan(t *testing.T) {
+	for _, conf := range []float64{0.9, 0.95, 0.99} {
+		for n := 1; n <= 400; n++ {
+			b := distuv.Binomial{N: float64(n), P: 0.5}
+			want := 0
+			for k := 1; k <= (n+1)/2; k++ {
+				if b.CDF(float64(k-1)) <= (1-conf)/2 {
+					want = k
+				} else {
+					break
+				}
+			}
+			if got := medianRank(n, conf); got != want {
+				t.Errorf("n %d conf %g: rank %d, want %d", n, conf, got, want)
+			}
 		}
 	}
 }

@@ -8,16 +8,18 @@ import (
 )
 
 // The memory limit per byte of input (CSV or store): a report's live heap
-// at its peak, the end of the reading, is about 0.37 bytes per byte (its
-// points packed in about 25 bytes, of rows of about 80) and the collector
-// needs about a quarter more to run seldom (10 M rows: 5.6 s under 0.43,
-// 5.3 s under 0.45, 5.15 s under 0.5); the dashboard keeps the points
+// at its peak, the end of the reading, is about 0.42 bytes per byte (its
+// points packed in about 29 bytes, of rows of about 80) and the collector
+// needs about a quarter more to run seldom (10 M rows, before the fuel
+// factor's 4 bytes a point: 5.6 s under 0.43, 5.3 s under 0.45, 5.15 s
+// under 0.5; with them 4.6-5.2 s under 0.52, 11 s under 0.46, where the
+// collector ran all the time); the dashboard keeps the points
 // unpacked, with their details and where their rows are for the replay,
 // about 1.2 bytes per byte once loaded (1 M rows: 140 MB resident, the
 // fleet in 0.7 s; 10 M: 1.24 GB, 7.6 s). Measured on 1 M and 10 M
 // snapshots.
 const (
-	reportBytesPerByte = 0.46
+	reportBytesPerByte = 0.52
 	dashBytesPerByte   = 1.6
 )
 

@@ -48,7 +48,7 @@ func (f TailFactor) StoreProposal(tail string) store.Proposal {
 // points, restarted at every step of the airframe and engine series and
 // at every event, its monthly history and the policy's proposal against
 // the factor in use.
-func tailFactor(pts []model.TrendPoint, air, eng *model.TailTrend, events []model.Event, in *Input, buf *[]model.TrendPoint) TailFactor {
+func tailFactor(pts []model.TrendPoint, air, eng *model.TailTrend, events []model.Event, in *Input, buf *[]model.FlightPoint) TailFactor {
 	var tf TailFactor
 	for _, s := range air.Steps {
 		tf.Restarts = append(tf.Restarts, s.Time)

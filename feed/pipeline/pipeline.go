@@ -429,7 +429,8 @@ func (r *Result) assess(in Input) {
 			// With DropPoints, a tail's points and its engine series are
 			// put in buffers of the worker's, reused from one tail to the
 			// next: no fresh memory for them.
-			var buf, ebuf, fbuf []model.TrendPoint
+			var buf, ebuf []model.TrendPoint
+			var fbuf []model.FlightPoint
 			for i := range jobs {
 				tail := tails[i]
 				var pts []model.TrendPoint
