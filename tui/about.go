@@ -58,6 +58,7 @@ func (s *aboutScreen) SetSize(w, h int) {
 		"",
 		s.st.Flag.Render("Caution"),
 		p.Render(Caution),
+		p.Render(factorCaution),
 		"",
 		p.Render("Each cruise snapshot (weight, pressure altitude, Mach, air temperature, fuel flow, bank) becomes " +
 			"measured drag: thrust from fuel flow, less climb and acceleration. It is split into induced, wave and " +

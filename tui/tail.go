@@ -300,8 +300,13 @@ func (s *tailScreen) deviationChart(w, h int) string {
 func (s *tailScreen) timeChart(w, h int, start, end time.Time, lo, hi float64, x func(time.Time) float64, ser ...series) chartSpec {
 	return chartSpec{w: w, h: h, minX: x(start), maxX: x(end), minY: lo, maxY: hi,
 		xTicks: dateTicks(start, end, max(1, w/8), x),
-		yFmt:   func(_ int, v float64) string { return fmt.Sprintf("%+.1f%%", v) },
-		axis:   s.st.Muted, series: ser}
+		yFmt: func(_ int, v float64) string {
+			if math.Abs(v) < 0.05 {
+				v = 0 // not "-0.0%"
+			}
+			return fmt.Sprintf("%+.1f%%", v)
+		},
+		axis: s.st.Muted, series: ser}
 }
 
 // polarChart is the tail's usable snapshots of its current segment as CD −

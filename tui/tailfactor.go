@@ -36,8 +36,8 @@ func inUseSteps(hist []store.FactorSetting, start, end time.Time, x func(time.Ti
 	return append(pts, [2]float64{x(end), cur})
 }
 
-// factorChart is the legend and the fuel-factor chart of the tail, h
-// lines in all, over the same window as the deviation chart.
+// factorChart is the legend, the fuel-factor chart of the tail and the
+// caution, h lines in all, over the same window as the deviation chart.
 func (s *tailScreen) factorChart(w, h int) string {
 	end := s.a.Last.Add(-time.Duration(s.back * 24 * float64(time.Hour)))
 	start := end.Add(-time.Duration(s.window * 24 * float64(time.Hour)))
@@ -77,7 +77,7 @@ func (s *tailScreen) factorChart(w, h int) string {
 		ys = append(ys, p.ProposedPct)
 	}
 	lo, hi := span(ys, 0.08, 0.5)
-	spec := s.timeChart(w, h-1, start, end, lo, hi, x,
+	spec := s.timeChart(w, h-2, start, end, lo, hi, x,
 		series{points: band, style: s.st.Muted},
 		series{points: mon, line: true, style: s.st.Accent},
 		series{points: use, line: true, style: s.st.Plan},
@@ -99,7 +99,8 @@ func (s *tailScreen) factorChart(w, h int) string {
 	}
 	legend := s.st.Muted.Render("fuel factor %: ") + s.st.Accent.Render("monitored") + s.st.Muted.Render(" (· 95 %) · ") +
 		s.st.Plan.Render(inUse) + " · " + proposal + " · " + s.st.Event.Render("restart")
-	return truncate(legend, w) + "\n" + spec.render("no monitored factor in this window")
+	note := s.st.Muted.Render(truncate("factors are engineering proposals, not approved performance data", w))
+	return truncate(legend, w) + "\n" + spec.render("no monitored factor in this window") + "\n" + note
 }
 
 // factorFact is the facts block's line of the fuel factor: the factor in
