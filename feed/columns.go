@@ -71,6 +71,13 @@ type header struct {
 	name    [numColumns]string // the file's name of each column present
 	fields  []string           // the file's name of each field, in order
 	unknown []string           // columns that are ignored
+	// unit is the unit each value is in once read (unitKg, unitLb, …:
+	// the column's name in a plain header, dragdeck's unit under a
+	// layout); sep and dec the separator and the decimal mark; m what a
+	// layout made of the header (nil: dragdeck's own columns)
+	unit     [numColumns]string
+	sep, dec byte
+	m        *mapping
 }
 
 // layout names the columns with a unit of their own (weight, altitude,
@@ -105,7 +112,7 @@ const eventsHeader = "an events file (time, tail, kind, note), not snapshots"
 
 // parseHeader builds the layout from the header fields.
 func parseHeader(fields [][]byte) (*header, string) {
-	h := &header{n: len(fields)}
+	h := &header{n: len(fields), sep: ',', dec: '.'}
 	for i := range h.idx {
 		h.idx[i] = -1
 	}
@@ -125,7 +132,7 @@ func parseHeader(fields [][]byte) (*header, string) {
 		if h.idx[c] >= 0 {
 			return nil, "columns " + h.name[c] + " and " + name + " both given; keep one"
 		}
-		h.idx[c], h.name[c] = i, name
+		h.idx[c], h.name[c], h.unit[c] = i, name, name
 	}
 	if h.idx[colWeight] < 0 && seen["kind"] && seen["note"] && h.idx[colTime] >= 0 && h.idx[colTail] >= 0 {
 		return nil, eventsHeader

@@ -28,13 +28,20 @@ type Decoder struct {
 	name  string
 	hdr   *header
 	first bool // no line seen yet (a UTF-8 BOM may lead it)
+	// layout maps an export's own columns (nil: dragdeck's); sep is the
+	// field separator; num a buffer for a number with a decimal comma
+	layout *Layout
+	sep    byte
+	num    []byte
 
 	fields  [][]byte
 	scratch []byte
 	// the interned tail and flight names
 	tails, flights idTable
-	// the day of the row before: its rows share it too
-	day dayCache
+	// the day of the row before: its rows share it too (dates: of a
+	// layout's date column)
+	day   dayCache
+	dates dateCache
 
 	stats Stats
 
@@ -59,8 +66,21 @@ type TailCheck func(tail string, t time.Time) string
 
 // NewDecoder returns a decoder for the file called name (used in errors).
 func NewDecoder(name string) *Decoder {
-	return &Decoder{name: name, first: true}
+	return &Decoder{name: name, first: true, sep: ','}
 }
+
+// SetLayout reads the input through layout l (nil: dragdeck's own
+// columns); it must be set before the header line.
+func (d *Decoder) SetLayout(l *Layout) {
+	d.layout, d.sep = l, ','
+	if l != nil {
+		d.sep = l.Sep
+	}
+}
+
+// Mapping is how each dragdeck field is found under the layout, a line a
+// field, once the header is read (nil without a layout).
+func (d *Decoder) Mapping() []string { return d.hdr.Describe() }
 
 // Stats returns the rows counted so far.
 func (d *Decoder) Stats() Stats { return d.stats }
@@ -133,18 +153,24 @@ func (d *Decoder) record(out *Record, rec []byte, n int) (bool, error) {
 		return d.reject(n, d.hdr.fieldName(bad), ErrQuote, msg)
 	}
 	if d.hdr == nil {
-		if len(d.fields) == 1 && bytes.Count(rec, []byte{';'}) > 0 {
+		if d.layout == nil && len(d.fields) == 1 && bytes.Count(rec, []byte{';'}) > 0 {
 			return false, &FileError{File: d.name, Line: n, Reason: "the header is separated by semicolons, not commas " +
 				"(a spreadsheet export with decimal commas?): save the file as comma-separated with decimal points"}
 		}
-		h, msg := parseHeader(d.fields)
+		var h *header
+		var msg string
+		if d.layout != nil {
+			h, msg = mapHeader(d.fields, d.layout)
+		} else {
+			h, msg = parseHeader(d.fields)
+		}
 		if msg != "" {
 			return false, &FileError{File: d.name, Line: n, Reason: msg, Events: msg == eventsHeader}
 		}
 		d.hdr = h
 		return false, nil
 	}
-	if d.hdr.idx[colTime] < len(d.fields) && !isDigit(d.fields[d.hdr.idx[colTime]]) && isHeader(d.fields) {
+	if d.hdr.m == nil && d.hdr.idx[colTime] < len(d.fields) && !isDigit(d.fields[d.hdr.idx[colTime]]) && isHeader(d.fields) {
 		if d.stopAtHeader {
 			return false, errHeaderInPart
 		}
@@ -186,7 +212,7 @@ func (d *Decoder) splitPlain(rec []byte) bool {
 	start, i := 0, 0
 	for ; i+8 <= len(rec); i += 8 {
 		w := binary.LittleEndian.Uint64(rec[i:])
-		m := byteMask(w, ',') | byteMask(w, '"')
+		m := byteMask(w, d.sep) | byteMask(w, '"')
 		for m != 0 {
 			k := i + bits.TrailingZeros64(m)/8
 			if rec[k] == '"' {
@@ -199,7 +225,7 @@ func (d *Decoder) splitPlain(rec []byte) bool {
 	}
 	for ; i < len(rec); i++ {
 		switch rec[i] {
-		case ',':
+		case d.sep:
 			d.appendField(rec[start:i])
 			start = i + 1
 		case '"':
@@ -272,13 +298,13 @@ func (d *Decoder) split(rec []byte) (string, int) {
 			if len(rest) == 0 {
 				return "", 0
 			}
-			if rest[0] != ',' {
+			if rest[0] != d.sep {
 				return "text after a closing quote", len(d.fields) - 1
 			}
 			rec = rest[1:]
 			continue
 		}
-		i := bytes.IndexByte(rec, ',')
+		i := bytes.IndexByte(rec, d.sep)
 		f := rec
 		if i >= 0 {
 			f = rec[:i]
@@ -304,6 +330,13 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 	f := func(c column) []byte { return d.fields[h.idx[c]] }
 
 	*rec = Record{File: d.name, Line: n}
+	var v [numColumns]float64
+	if h.m != nil {
+		if ok, err := d.mappedRow(rec, n, &v); !ok {
+			return ok, err
+		}
+		return d.finish(rec, n, &v)
+	}
 	tf := f(colTime)
 	if len(tf) == 0 {
 		return d.reject(n, h.name[colTime], ErrEmpty, "empty")
@@ -337,7 +370,6 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 		}
 	}
 
-	var v [numColumns]float64
 	for c := colWeight; c < numColumns; c++ {
 		if h.idx[c] < 0 {
 			continue
@@ -362,23 +394,29 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 		}
 		v[c] = x
 	}
+	return d.finish(rec, n, &v)
+}
 
+// finish converts the values of a row, in the units h.unit names, into the
+// snapshot, and checks it.
+func (d *Decoder) finish(rec *Record, n int, v *[numColumns]float64) (bool, error) {
+	h := d.hdr
 	s := &rec.Snap
 	s.Weight = v[colWeight]
-	if h.name[colWeight] == unitLb {
+	if h.unit[colWeight] == unitLb {
 		s.Weight = KgFromLb(v[colWeight])
 	}
 	s.Altitude = MetresFromFeet(v[colAlt])
-	if h.name[colAlt] == unitM {
+	if h.unit[colAlt] == unitM {
 		s.Altitude = v[colAlt]
 	}
 	s.Mach = v[colMach]
 	s.FuelFlow = KgPerSFromKgPerH(v[colFuelFlow])
-	if h.name[colFuelFlow] == unitLbph {
+	if h.unit[colFuelFlow] == unitLbph {
 		s.FuelFlow = KgPerSFromLbPerH(v[colFuelFlow])
 	}
 	s.SAT = KelvinFromCelsius(v[colTemp])
-	if h.name[colTemp] == unitTAT {
+	if h.unit[colTemp] == unitTAT {
 		s.SAT = SATFromTAT(s.SAT, s.Mach)
 	}
 	s.Bank = RadFromDeg(v[colBank])
@@ -392,15 +430,15 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 		return d.reject(n, h.name[colSeconds], ErrRange, fmt.Sprintf("must be 0 … 1e7 s, got %g", v[colSeconds]))
 	}
 	rec.Samples, rec.Seconds = int(v[colSamples]), v[colSeconds]
-	if h.idx[colN1] >= 0 && s.N1 == 0 && len(f(colN1)) > 0 {
+	if h.idx[colN1] >= 0 && s.N1 == 0 && h.m == nil && len(d.fields[h.idx[colN1]]) > 0 {
 		return d.reject(n, h.name[colN1], ErrRange, fmt.Sprintf("fan speed must be in (0, %g] %%, got 0 %% (leave the field empty when it is not recorded)", MaxN1Pct))
 	}
 	if e := CheckSnapshot(*s); e != nil {
 		col := h.name[fieldColumn[e.Field]]
 		switch {
-		case e.Field == FieldSAT && h.name[colTemp] == unitTAT && e.Err == ErrRange:
+		case e.Field == FieldSAT && h.unit[colTemp] == unitTAT && e.Err == ErrRange:
 			e.Reason = fmt.Sprintf("%s (from TAT %g °C at Mach %g)", e.Reason, v[colTemp], v[colMach])
-		case e.Field == FieldAltitude && h.name[colAlt] == unitM && e.Err == ErrRange:
+		case e.Field == FieldAltitude && h.unit[colAlt] == unitM && e.Err == ErrRange:
 			e.Reason = fmt.Sprintf("%s (from %g m)", e.Reason, v[colAlt])
 		}
 		return d.reject(n, col, e.Err, e.Reason)

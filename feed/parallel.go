@@ -138,13 +138,13 @@ func readParts(path string, opt ReadOptions, workers int, newSink func() PartSin
 		return ReadFileWith(path, opt, accept, reject) // says why, as for any file
 	}
 	defer f.Close()
-	hdr, bodyStart, hdrLines, ok := readHeader(f, path)
+	hdr, bodyStart, hdrLines, ok := readHeader(f, path, opt.Layout)
 	if !ok {
 		return ReadFileWith(path, opt, accept, reject)
 	}
 	size := fi.Size()
 	parts := cutParts(f, bodyStart, size)
-	res := FileResult{Path: path, Unknown: hdr.unknown}
+	res := FileResult{Path: path, Unknown: hdr.unknown, Mapping: hdr.Describe()}
 
 	// At most 2 × workers parts are decoded ahead of the one handed on,
 	// so that memory stays with a few parts whatever the file's size.
@@ -242,7 +242,7 @@ func readParts(path string, opt ReadOptions, workers int, newSink func() PartSin
 // lines the header and what came before it took; false when there is no
 // usable header in the first headerWindow bytes (ReadFileWith then says
 // why).
-func readHeader(f *os.File, path string) (*header, int64, int, bool) {
+func readHeader(f *os.File, path string, l *Layout) (*header, int64, int, bool) {
 	buf := make([]byte, headerWindow)
 	n, err := f.ReadAt(buf, 0)
 	if err != nil && err != io.EOF {
@@ -250,6 +250,7 @@ func readHeader(f *os.File, path string) (*header, int64, int, bool) {
 	}
 	buf = buf[:n]
 	d := NewDecoder(path)
+	d.SetLayout(l)
 	off, line := 0, 0
 	for off < len(buf) {
 		i := bytes.IndexByte(buf[off:], '\n')
@@ -301,7 +302,8 @@ func cutParts(f *os.File, from, size int64) []*part {
 // partDecoder is a decoder that starts with the file's header.
 func partDecoder(path string, hdr *header, opt ReadOptions) *Decoder {
 	d := NewDecoder(path)
-	d.hdr, d.first = hdr, false
+	d.hdr, d.first, d.sep = hdr, false, hdr.sep
+	d.layout = opt.Layout
 	d.CheckTail = opt.CheckTail
 	return d
 }

@@ -149,6 +149,7 @@ type FileResult struct {
 	Notices []string // new header lines inside the file, at most maxNotices
 	Err     error    // a *FileError or I/O error: the file could not be read
 	Events  bool     // an events file, skipped (not an error)
+	Mapping []string // under a layout: how each field is found, a line each
 }
 
 // ReadFile reads the snapshot file at path, calling accept for each accepted
@@ -161,6 +162,7 @@ func ReadFile(path string, accept func(Record), reject func(*RowError)) FileResu
 type ReadOptions struct {
 	Progress  *atomic.Int64 // bytes read so far are added to it (may be nil)
 	CheckTail TailCheck     // rows of the tails it refuses are rejected (may be nil)
+	Layout    *Layout       // an export's own columns (nil: dragdeck's)
 }
 
 // TotalSize returns the summed size of the files in bytes (0 for those that
@@ -237,6 +239,7 @@ func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func
 	}
 	r := NewReader(src, path)
 	r.SetTailCheck(opt.CheckTail)
+	r.d.SetLayout(opt.Layout)
 	r.d.Notice = func(s string) {
 		if len(res.Notices) < maxNotices {
 			res.Notices = append(res.Notices, s)
@@ -252,6 +255,9 @@ func ReadFileWith(path string, opt ReadOptions, accept func(Record), reject func
 		res.Err = err
 	}
 	res.Stats, res.Unknown = r.Stats(), r.Unknown()
+	if r.d.hdr != nil {
+		res.Mapping = r.d.Mapping()
+	}
 	return res
 }
 

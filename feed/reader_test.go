@@ -335,7 +335,7 @@ func TestTimesAreUTC(t *testing.T) {
 func TestSplitPlainMatchesSplit(t *testing.T) {
 	rng := rand.New(rand.NewPCG(11, 12))
 	alphabet := []byte("0123456789.-, , \t,é,,ab\u00a0")
-	var d Decoder
+	d := Decoder{sep: ','}
 	for i := 0; i < 20000; i++ {
 		line := make([]byte, rng.IntN(40))
 		for k := range line {

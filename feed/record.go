@@ -37,6 +37,7 @@ var (
 	ErrTooLong    = errors.New("line too long")
 	ErrNotInFleet = errors.New("tail not in the fleet file")
 	ErrID         = errors.New("bad id")
+	ErrEngineOut  = errors.New("engine out")
 )
 
 // RowError is a rejected row: "file:line: column: reason". Reading goes on

@@ -19,14 +19,14 @@ func (f ReplayFilter) Match(r Record) bool {
 
 // LoadReplay reads the files, keeps the accepted records that match the
 // filter and returns them merged in time order (ties keep file and line
-// order). Rows of the tails that check refuses (may be nil) are rejected;
+// order), read with opt (its tail check and layout). Rows of refused tails are rejected;
 // rejected rows go to reject; files that cannot be read are in the results
 // with their error.
-func LoadReplay(paths []string, f ReplayFilter, check TailCheck, reject func(*RowError)) ([]Record, []FileResult) {
+func LoadReplay(paths []string, f ReplayFilter, opt ReadOptions, reject func(*RowError)) ([]Record, []FileResult) {
 	var recs []Record
 	results := make([]FileResult, 0, len(paths))
 	for _, p := range paths {
-		results = append(results, ReadFileWith(p, ReadOptions{CheckTail: check}, func(r Record) {
+		results = append(results, ReadFileWith(p, opt, func(r Record) {
 			if f.Match(r) {
 				recs = append(recs, r)
 			}

@@ -45,7 +45,7 @@ func TestLoadReplayMergesAndFilters(t *testing.T) {
 		"2026-03-01T10:01:00Z,DD101,F1,65000,35000,0.78,-54,2400\n"+
 		"2026-03-01T10:03:00Z,DD101,F2,65000,35000,0.78,-54,bad\n")
 	var rejected int
-	recs, results := LoadReplay([]string{a, b}, ReplayFilter{Tail: "DD101"}, nil, func(*RowError) { rejected++ })
+	recs, results := LoadReplay([]string{a, b}, ReplayFilter{Tail: "DD101"}, ReadOptions{}, func(*RowError) { rejected++ })
 	if len(recs) != 3 || rejected != 1 || len(results) != 2 {
 		t.Fatalf("%d records, %d rejected, %d results", len(recs), rejected, len(results))
 	}
@@ -54,7 +54,7 @@ func TestLoadReplayMergesAndFilters(t *testing.T) {
 			t.Errorf("record %d at %s, want %s", i, got, want)
 		}
 	}
-	recs, _ = LoadReplay([]string{a, b}, ReplayFilter{Flight: "F7"}, nil, nil)
+	recs, _ = LoadReplay([]string{a, b}, ReplayFilter{Flight: "F7"}, ReadOptions{}, nil)
 	if len(recs) != 1 || recs[0].Tail != "DD102" {
 		t.Errorf("flight filter: %+v", recs)
 	}

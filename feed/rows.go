@@ -43,7 +43,7 @@ func ReadRows(path string, offsets []int64, simple bool, opt ReadOptions) ([]Rec
 		return nil, err
 	}
 	defer f.Close()
-	hdr, bodyStart, _, ok := readHeader(f, path)
+	hdr, bodyStart, _, ok := readHeader(f, path, opt.Layout)
 	from, to := slices.Min(offsets), slices.Max(offsets)
 	if !ok || from < bodyStart {
 		return whole()

@@ -12,7 +12,7 @@ import (
 )
 
 func runCheck(e *env, args []string) error {
-	fs := newFlagSet("check", "dragdeck check [--fleet FILE] PATH... | --store FILE",
+	fs := newFlagSet("check", "dragdeck check [--fleet FILE] [--layout FILE] PATH... | --store FILE",
 		`Validates snapshot files (or every *.csv in a folder) against the snapshot
 format (see the README) and lists every rejected row as file:line: column: reason, then the counts per
 reason. Every row is either accepted or rejected: read = accepted + rejected.
@@ -21,14 +21,25 @@ Exit status: 0 no rejects, 1 some rows rejected, 2 a file could not be read
 tails that the fleet file does not name (or names only from a later date)
 are rejected too, as every reading command rejects them. With --store, the
 store is checked: its file's integrity, and every stored snapshot against
-the store's fleet file (or --fleet) and the snapshot limits.`,
+the store's fleet file (or --fleet) and the snapshot limits. With --layout,
+the files are read through the layout (an export in its own columns) and
+check prints, for each file, how each dragdeck field is found: the column
+or columns, the unit and scale, the time's format and zone.`,
 		"dragdeck check exports/2026-03/")
 	fleet := fs.str("fleet", "FILE", "", "fleet file (TOML): also reject the rows of tails it does not name")
 	storePath := fs.storeFlag()
+	layoutPath := fs.layoutFlag()
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
 	}
+	layout, err := loadLayout(layoutPath)
+	if err != nil {
+		return err
+	}
 	if *storePath != "" {
+		if layout != nil {
+			return usageErrorf("--layout reads files; a store holds snapshots already read")
+		}
 		return checkStore(e, fs, *storePath, *fleet)
 	}
 	if fs.NArg() == 0 {
@@ -58,7 +69,7 @@ the store's fleet file (or --fleet) and the snapshot limits.`,
 	byReason := map[string]int{}
 	var total feed.Stats
 	for _, path := range files {
-		res := feed.ReadFileWith(path, feed.ReadOptions{CheckTail: check}, nil, func(r *feed.RowError) {
+		res := feed.ReadFileWith(path, feed.ReadOptions{CheckTail: check, Layout: layout}, nil, func(r *feed.RowError) {
 			fmt.Fprintln(e.stdout, r)
 			byReason[r.Column+": "+r.Err.Error()]++
 		})
@@ -70,6 +81,12 @@ the store's fleet file (or --fleet) and the snapshot limits.`,
 		if res.Err != nil {
 			fmt.Fprintf(e.stderr, "dragdeck check: %v\n", res.Err)
 			failed++
+		}
+		if len(res.Mapping) > 0 {
+			fmt.Fprintf(e.stdout, "%s: read through the layout %s:\n", path, layout.Source)
+			for _, l := range res.Mapping {
+				fmt.Fprintf(e.stdout, "  %s\n", l)
+			}
 		}
 		total.Add(res.Stats)
 	}

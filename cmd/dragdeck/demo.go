@@ -5,6 +5,7 @@ import (
 	"math"
 	"path/filepath"
 
+	"dragdeck/feed"
 	"dragdeck/feed/demo"
 	"dragdeck/model"
 )
@@ -89,6 +90,7 @@ a symbolic link.`,
 		fmt.Fprintf(e.stdout, "  %s  %s, %d tails\n", filepath.Join(*out, ty.File), ty.TypeName, ty.Tails)
 	}
 	fmt.Fprintf(e.stdout, "  %s  the fleet file (the type of each tail; use it with --fleet)\n", filepath.Join(*out, demo.FleetFile))
+	fmt.Fprintf(e.stdout, "  %s  dragdeck's own columns as a layout file (an example to copy for --layout)\n", filepath.Join(*out, feed.LayoutFile))
 	fmt.Fprintln(e.stdout, "All of it is invented data.")
 	return nil
 }

@@ -48,8 +48,13 @@ read as a stream, one flight per tail at a time.`,
 	sat := fs.float("max-sat-range-c", "C", def.SATRange, false, "largest max − min SAT, °C")
 	n1 := fs.float("max-n1-range-pct", "PCT", def.N1RangePct, false, "largest max − min N1, percentage points (when recorded)")
 	gap := fs.float("max-gap-seconds", "S", def.MaxGap, false, "longest step between two samples, s")
+	layoutPath := fs.layoutFlag()
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
+	}
+	layout, err := loadLayout(layoutPath)
+	if err != nil {
+		return err
 	}
 	c := model.StableCriteria{MinSeconds: *minS, MaxSeconds: *maxS, MachRange: *mach, AltRange: *alt * model.Foot,
 		MaxBank: *bank * math.Pi / 180, FuelFlowRangePct: *ff, SATRange: *sat, N1RangePct: *n1, MaxGap: *gap}
@@ -73,7 +78,7 @@ read as a stream, one flight per tail at a time.`,
 	x := newExtractor(e, c)
 	failed := 0
 	for _, path := range files {
-		res := feed.ReadFileParallel(path, feed.ReadOptions{}, runtime.GOMAXPROCS(0), x.add, func(r *feed.RowError) {
+		res := feed.ReadFileParallel(path, feed.ReadOptions{Layout: layout}, runtime.GOMAXPROCS(0), x.add, func(r *feed.RowError) {
 			fmt.Fprintf(e.stderr, "dragdeck extract: rejected %v\n", r)
 		})
 		x.flushAll()

@@ -223,19 +223,37 @@ func loadType(path string) (*model.Type, error) {
 
 // typeChoice is the --type and --fleet flags of a command: one type for
 // every tail, or a fleet file that gives each tail its type.
-type typeChoice struct{ typ, fleet *string }
+type typeChoice struct{ typ, fleet, layout *string }
 
-// typeFlags declares --type and --fleet.
+// typeFlags declares --type, --fleet and --layout.
 func (f *flagSet) typeFlags() typeChoice {
 	return typeChoice{f.typeFlag(), f.str("fleet", "FILE", "",
-		"fleet file (TOML): the type of each tail, a retrofit from its date on, per-tail cruise hours and meter correction; in place of --type")}
+		"fleet file (TOML): the type of each tail, a retrofit from its date on, per-tail cruise hours and meter correction; in place of --type"),
+		f.layoutFlag()}
+}
+
+// layoutFlag declares --layout.
+func (f *flagSet) layoutFlag() *string {
+	return f.str("layout", "FILE", "", "layout file (TOML): read an export as it is, in its own columns, units, time format, separator and decimal mark (README: layout files)")
+}
+
+// loadLayout reads the --layout file (nil without one).
+func loadLayout(path *string) (*feed.Layout, error) {
+	if path == nil || *path == "" {
+		return nil, nil
+	}
+	l, err := feed.LoadLayout(*path)
+	if err != nil {
+		return nil, usageErrorf("--layout: %v", err)
+	}
+	return l, nil
 }
 
 // oneTypeFlags declares --type and --fleet for a command that analyses one
 // condition: with --fleet, --type names one of its types.
 func (f *flagSet) oneTypeFlags() typeChoice {
 	return typeChoice{f.typeFlag(), f.str("fleet", "FILE", "",
-		"fleet file (TOML); then --type NAME picks one of its types (not needed when it has one)")}
+		"fleet file (TOML); then --type NAME picks one of its types (not needed when it has one)"), nil}
 }
 
 // roster loads --fleet, or --type as a single-type roster; giving both is

@@ -12,7 +12,7 @@ import (
 )
 
 func runImport(e *env, args []string) error {
-	fs := newFlagSet("import", "dragdeck import [--store FILE] [--json] PATH...",
+	fs := newFlagSet("import", "dragdeck import [--store FILE] [--layout FILE] [--json] PATH...",
 		`Adds snapshot files, events files and a fleet file to the fleet store (one
 SQLite file, created when missing). A folder gives its *.csv files and a
 fleet.toml directly inside it; a .toml path is a fleet file, kept with the
@@ -25,9 +25,14 @@ are listed as 'dragdeck check' lists them. Exit status: 0 done, 2 a file
 could not be read (then nothing is added).`,
 		"dragdeck import --store fleet.db exports/2026-w48/ fleet/fleet.toml")
 	storePath := fs.str("store", "FILE", store.DefaultFile, "the store")
+	layoutPath := fs.layoutFlag()
 	asJSON := fs.Bool("json", false, "print the counts as JSON")
 	if err := fs.parse(args, e.stdout); err != nil && err != errPositional {
 		return helpOK(err)
+	}
+	layout, err := loadLayout(layoutPath)
+	if err != nil {
+		return err
 	}
 	if fs.NArg() == 0 {
 		return usageErrorf("give at least one snapshot file, folder or fleet file (see 'dragdeck import --help')")
@@ -79,7 +84,7 @@ could not be read (then nothing is added).`,
 	}
 	defer st.Close()
 	var conflicts []string
-	res, err := st.Import(e.ctx, store.ImportInput{Files: csvs, Fleet: fleet,
+	res, err := st.Import(e.ctx, store.ImportInput{Files: csvs, Fleet: fleet, Layout: layout,
 		Reject:   func(r *feed.RowError) { fmt.Fprintln(e.stderr, r) },
 		Conflict: func(c store.Conflict) { conflicts = append(conflicts, c.String()) },
 	})

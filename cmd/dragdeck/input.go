@@ -24,6 +24,7 @@ type input struct {
 	// the fuel-factor policy (nil: the defaults).
 	inUse  map[string]store.FactorSetting
 	policy *model.FactorPolicy
+	layout *feed.Layout // the --layout the files are read through (nil: dragdeck's columns)
 }
 
 // storeFlag declares --store on a command that reads snapshots.
@@ -38,6 +39,9 @@ func (f *flagSet) storeFlag() *string {
 func openInput(stderr io.Writer, fs *flagSet, types typeChoice, storePath, eventsPath string) (*input, error) {
 	in := &input{}
 	var err error
+	if in.layout, err = loadLayout(types.layout); err != nil {
+		return nil, err
+	}
 	if storePath == "" {
 		if in.roster, in.files, err = typeAndFiles(stderr, fs, types); err != nil {
 			return nil, err
@@ -47,6 +51,9 @@ func openInput(stderr io.Writer, fs *flagSet, types typeChoice, storePath, event
 	}
 	if fs.NArg() > 0 {
 		return nil, usageErrorf("give --store or snapshot paths, not both")
+	}
+	if in.layout != nil {
+		return nil, usageErrorf("--layout reads files; a store holds snapshots already read (give it to 'dragdeck import')")
 	}
 	if in.store, err = store.Open(storePath, false); err != nil {
 		return nil, usageErrorf("--store: %v", err)
@@ -87,7 +94,7 @@ func openInput(stderr io.Writer, fs *flagSet, types typeChoice, storePath, event
 
 // pipelineInput is the pipeline's input for these snapshots.
 func (in *input) pipelineInput(c model.TrendConfig) pipeline.Input {
-	p := pipeline.Input{Paths: in.files, Roster: in.roster, Events: in.events, Config: c, Policy: in.policy}
+	p := pipeline.Input{Paths: in.files, Layout: in.layout, Roster: in.roster, Events: in.events, Config: c, Policy: in.policy}
 	if in.store != nil {
 		p.Source = in.store
 		p.InUse = make(map[string]float64, len(in.inUse))
@@ -130,7 +137,7 @@ func sourceFailed(r *pipeline.Result) error {
 // files, with their counts; rejected rows go to reject.
 func (in *input) replayRecords(stderr io.Writer, f feed.ReplayFilter, reject func(*feed.RowError)) ([]feed.Record, feed.Stats, error) {
 	if in.store == nil {
-		recs, results := feed.LoadReplay(in.files, f, feed.RosterCheck(in.roster), reject)
+		recs, results := feed.LoadReplay(in.files, f, feed.ReadOptions{CheckTail: feed.RosterCheck(in.roster), Layout: in.layout}, reject)
 		var st feed.Stats
 		for _, res := range results {
 			warnUnknown(stderr, res)

@@ -234,6 +234,11 @@ func Write(dir string, cfg Config) (Truth, error) {
 	if err := writeNew(filepath.Join(dir, FleetFile), g.fleetFile()); err != nil {
 		return truth, err
 	}
+	// dragdeck's own columns as a layout file: the example to copy for an
+	// export of another layout
+	if err := writeNew(filepath.Join(dir, feed.LayoutFile), []byte(feed.BuiltinLayout)); err != nil {
+		return truth, err
+	}
 	truth.Events = g.events()
 	var ev bytes.Buffer
 	writeEvents(&ev, truth.Events)

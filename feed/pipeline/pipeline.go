@@ -23,6 +23,8 @@ import (
 // Input is what the pipeline reads and how it judges it.
 type Input struct {
 	Paths []string // snapshot files
+	// Layout reads the files in an export's own columns (nil: dragdeck's).
+	Layout *feed.Layout
 	// Source, when set, is read in place of Paths (the fleet store).
 	Source Source
 	// Roster gives the type in force for each tail at each time (a fleet
@@ -261,7 +263,7 @@ func Run(in Input) *Result {
 				r.fileIdx[p] = i
 			}
 		}
-		r.opt = feed.ReadOptions{CheckTail: feed.RosterCheck(r.Roster)}
+		r.opt = feed.ReadOptions{CheckTail: feed.RosterCheck(r.Roster), Layout: in.Layout}
 	}
 	var rejMu sync.Mutex
 	onReject := func(e *feed.RowError) {
@@ -283,7 +285,7 @@ func Run(in Input) *Result {
 		go func() {
 			defer wg.Done()
 			for i := range jobs {
-				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: feed.RosterCheck(r.Roster)}
+				opt := feed.ReadOptions{Progress: in.Progress, CheckTail: feed.RosterCheck(r.Roster), Layout: in.Layout}
 				ref := int64(-1)
 				if r.refs {
 					ref = int64(r.fileIdx[in.Paths[i]])

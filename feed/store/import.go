@@ -26,6 +26,9 @@ type ImportInput struct {
 	// conflicting one (may be nil).
 	Reject   func(*feed.RowError)
 	Conflict func(Conflict)
+	// Layout reads the files in an export's own columns (nil: dragdeck's);
+	// the store keeps it (Layouts), by its file name.
+	Layout *feed.Layout
 }
 
 // Conflict is an incoming snapshot whose tail and time are already stored
@@ -90,7 +93,7 @@ func (s *Store) Import(ctx context.Context, in ImportInput) (ImportResult, error
 		if err := ctx.Err(); err != nil {
 			return res, err
 		}
-		fr := feed.ReadFileParallel(path, feed.ReadOptions{}, 2, func(r feed.Record) {
+		fr := feed.ReadFileParallel(path, feed.ReadOptions{Layout: in.Layout}, 2, func(r feed.Record) {
 			if failed != nil {
 				return
 			}
@@ -155,10 +158,36 @@ func (s *Store) Import(ctx context.Context, in ImportInput) (ImportResult, error
 		}
 		res.Fleet = in.Fleet
 	}
+	if l := in.Layout; l != nil {
+		if _, err := tx.Exec("INSERT OR REPLACE INTO files (role, name, content, imported) VALUES ('layout', ?, ?, ?)",
+			filepath.Base(l.Source), l.Text, now); err != nil {
+			return res, err
+		}
+	}
 	if err := ctx.Err(); err != nil {
 		return res, err
 	}
 	return res, tx.Commit()
+}
+
+// Layouts returns the layout files imports used, by name (the text as it
+// was read), the latest import's for a name.
+func (s *Store) Layouts() (map[string][]byte, error) {
+	rows, err := s.db.Query("SELECT name, content FROM files WHERE role = 'layout'")
+	if err != nil {
+		return nil, err
+	}
+	defer rows.Close()
+	out := map[string][]byte{}
+	for rows.Next() {
+		var name string
+		var content []byte
+		if err := rows.Scan(&name, &content); err != nil {
+			return nil, err
+		}
+		out[name] = content
+	}
+	return out, rows.Err()
 }
 
 // keys knows the digest of every snapshot stored or added so far, by tail
@@ -392,7 +421,7 @@ func keepFleet(tx *sql.Tx, path string, now int64) error {
 	}); err != nil {
 		return err
 	}
-	if _, err := tx.Exec("DELETE FROM files"); err != nil {
+	if _, err := tx.Exec("DELETE FROM files WHERE role IN ('fleet', 'type')"); err != nil {
 		return err
 	}
 	if _, err := tx.Exec("INSERT INTO files (role, name, content, imported) VALUES ('fleet', ?, ?, ?)", filepath.Base(path), data, now); err != nil {

@@ -141,9 +141,10 @@ func (s *Store) Roster() (*model.Roster, error) {
 		if err := rows.Scan(&role, &name, &content); err != nil {
 			return nil, err
 		}
-		if role == "fleet" {
+		switch role {
+		case "fleet":
 			fleetName, fleet = name, content
-		} else {
+		case "type":
 			types[name] = content
 		}
 	}
