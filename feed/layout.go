@@ -111,10 +111,10 @@ func UnitsText() string {
 }
 
 type layoutFile struct {
-	Name      string                     `toml:"name"`
-	Separator string                     `toml:"separator"`
-	Decimal   string                     `toml:"decimal"`
-	Time      *layoutTimeFile            `toml:"time"`
+	Name      string          `toml:"name"`
+	Separator string          `toml:"separator"`
+	Decimal   string          `toml:"decimal"`
+	Time      *layoutTimeFile `toml:"time"`
 	Fields    layoutFields    `toml:"fields"`
 }
 

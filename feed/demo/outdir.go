@@ -8,6 +8,8 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+
+	"dragdeck/feed"
 )
 
 // ErrNotEmpty is Write's refusal of a folder that already holds files.
@@ -56,7 +58,7 @@ func prepareDir(dir string, overwrite bool) error {
 	}
 	// What an earlier demo wrote: its fixed files, and the type files and
 	// traces by their patterns.
-	stale := []string{SnapshotFile, FleetFile, EventsFile, TruthFile, "type.toml"}
+	stale := []string{SnapshotFile, FleetFile, EventsFile, TruthFile, "type.toml", feed.LayoutFile}
 	for _, pat := range []string{TypeDir + "/*.toml", TraceDir + "/*.csv", RecordingDir + "/*.csv"} {
 		m, _ := filepath.Glob(filepath.Join(dir, pat))
 		for _, p := range m {
