@@ -30,9 +30,10 @@ type Decoder struct {
 	first bool // no line seen yet (a UTF-8 BOM may lead it)
 	// layout maps an export's own columns (nil: dragdeck's); sep is the
 	// field separator; num a buffer for a number with a decimal comma
-	layout *Layout
-	sep    byte
-	num    []byte
+	layout  *Layout
+	sep     byte
+	num     []byte
+	running []bool // the engines with a fuel flow in the row (per-engine columns)
 
 	fields  [][]byte
 	scratch []byte
@@ -42,6 +43,7 @@ type Decoder struct {
 	// layout's date column)
 	day   dayCache
 	dates dateCache
+	zone  zoneCache
 
 	stats Stats
 

@@ -80,7 +80,8 @@ func (d *Decoder) mappedRow(rec *Record, n int, v *[numColumns]float64) (bool, e
 
 // engines is the total fuel flow of the per-engine columns, or the mean
 // fan speed of the engines that run (those with a fuel flow, when it is
-// per engine too; else those with a fan speed), in the layout's unit.
+// per engine too, as the row's fuel-flow pass left them in d.running;
+// else those with a fan speed), in the layout's unit.
 func (d *Decoder) engines(n int, c column) (float64, bool, error) {
 	m := d.hdr.m
 	names := m.lay.Fields[c].Engines
@@ -97,6 +98,10 @@ func (d *Decoder) engines(n int, c column) (float64, bool, error) {
 			}
 		}
 		if c == colFuelFlow {
+			if j == 0 {
+				d.running = d.running[:0]
+			}
+			d.running = append(d.running, x > 0)
 			if x > 0 {
 				running++
 			} else if off == "" {
@@ -105,7 +110,7 @@ func (d *Decoder) engines(n int, c column) (float64, bool, error) {
 			sum += x
 			continue
 		}
-		if len(b) > 0 && x > 0 && (len(m.eng[colFuelFlow]) != len(m.eng[c]) || d.engineRuns(j)) {
+		if len(b) > 0 && x > 0 && (len(d.running) != len(m.eng[c]) || d.running[j]) {
 			sum += x
 			k++
 		}
@@ -120,13 +125,6 @@ func (d *Decoder) engines(n int, c column) (float64, bool, error) {
 		return 0, true, nil // not recorded
 	}
 	return sum / float64(k), true, nil
-}
-
-// engineRuns reports whether engine j has a fuel flow in the row.
-func (d *Decoder) engineRuns(j int) bool {
-	b := d.fields[d.hdr.m.eng[colFuelFlow][j]]
-	x, _, kind := d.number(b)
-	return len(b) > 0 && kind == nil && x > 0
 }
 
 func (d *Decoder) rejectErr(n int, col string, kind error, reason string) error {
@@ -201,13 +199,59 @@ func (d *Decoder) mappedTime(n int) (time.Time, bool, error) {
 	if err != nil {
 		return time.Time{}, false, d.rejectErr(n, h.name[colTime], ErrTime, fmt.Sprintf("%s is not a date of the form %s", quoteField(df), lt.DateText))
 	}
-	clock, err := time.Parse(lt.ClockFormat, string(cf))
-	if err != nil {
-		return time.Time{}, false, d.rejectErr(n, h.name[colTime], ErrTime, fmt.Sprintf("%s is not a time of day of the form %s", quoteField(cf), lt.ClockText))
+	secs, ns, ok := clockOf(cf, lt.ClockFormat)
+	if !ok {
+		clock, err := time.Parse(lt.ClockFormat, string(cf))
+		if err != nil {
+			return time.Time{}, false, d.rejectErr(n, h.name[colTime], ErrTime, fmt.Sprintf("%s is not a time of day of the form %s", quoteField(cf), lt.ClockText))
+		}
+		secs, ns = int64(clock.Hour()*3600+clock.Minute()*60+clock.Second()), clock.Nanosecond()
 	}
-	y, mo, dd := date.Date()
-	t := time.Date(y, mo, dd, clock.Hour(), clock.Minute(), clock.Second(), clock.Nanosecond(), lt.Zone)
-	return t, true, nil
+	return d.zone.at(date.Unix()+secs, ns, lt.Zone), true, nil
+}
+
+// clockOf reads a time of day written as the layout "15:04:05" says
+// (the usual one) without time.Parse: its seconds and nanoseconds.
+func clockOf(b []byte, layout string) (int64, int, bool) {
+	if layout != "15:04:05" || len(b) != 8 || b[2] != ':' || b[5] != ':' {
+		return 0, 0, false
+	}
+	h, m, s := twoDigits(b[0], b[1]), twoDigits(b[3], b[4]), twoDigits(b[6], b[7])
+	if h < 0 || h > 23 || m < 0 || m > 59 || s < 0 || s > 59 {
+		return 0, 0, false
+	}
+	return int64(h*3600 + m*60 + s), 0, true
+}
+
+// zoneCache keeps the offset of the zone's period the last time fell in,
+// so that a local time in that period is turned into UTC without a
+// lookup in the zone's rules.
+type zoneCache struct {
+	loc        *time.Location
+	off        int64 // seconds east of UTC
+	start, end int64 // the period, Unix seconds (0: open)
+}
+
+// at is the instant of the local wall time wall (seconds since 1970 as
+// if the zone were UTC) and ns in loc, as time.Date gives it.
+func (z *zoneCache) at(wall int64, ns int, loc *time.Location) time.Time {
+	if z.loc == loc {
+		if u := wall - z.off; (z.start == 0 || u >= z.start) && (z.end == 0 || u < z.end) {
+			return time.Unix(u, int64(ns)).UTC()
+		}
+	}
+	w := time.Unix(wall, int64(ns)).UTC()
+	t := time.Date(w.Year(), w.Month(), w.Day(), w.Hour(), w.Minute(), w.Second(), ns, loc)
+	_, off := t.Zone()
+	start, end := t.ZoneBounds()
+	z.loc, z.off, z.start, z.end = loc, int64(off), 0, 0
+	if !start.IsZero() {
+		z.start = start.Unix()
+	}
+	if !end.IsZero() {
+		z.end = end.Unix()
+	}
+	return t.UTC()
 }
 
 // dateCache keeps the date read last: the rows of a day share it.
@@ -220,7 +264,7 @@ func (c *dateCache) date(b []byte, lt *LayoutTime) (time.Time, error) {
 	if c.key != nil && string(b) == string(c.key) {
 		return c.day, nil
 	}
-	t, err := time.Parse(lt.DateFormat, string(b))
+	t, err := time.Parse(lt.DateFormat, string(b)) // midnight UTC of the date
 	if err != nil {
 		return t, err
 	}
