@@ -16,7 +16,9 @@ func runImport(e *env, args []string) error {
 		`Adds snapshot files, events files and a fleet file to the fleet store (one
 SQLite file, created when missing). A folder gives its *.csv files and a
 fleet.toml directly inside it; a .toml path is a fleet file, kept with the
-type files it names (it replaces the one kept before). The whole run is one
+type files it names (it replaces the one kept before). --layout reads the
+files through a layout file (an export in its own columns); the store keeps
+the layout with the import. The whole run is one
 transaction: an import that fails or is interrupted leaves the store as it
 was. A snapshot whose tail and time are stored already is a duplicate when
 every value is the same (counted, not added again) and a conflict when one
@@ -114,6 +116,9 @@ could not be read (then nothing is added).`,
 		st.Path(), res.New, res.Duplicate, res.Conflict, res.Rejected, res.Read, len(csvs), res.Events)
 	if res.Fleet != "" {
 		fmt.Fprintf(e.stdout, "; fleet file %s kept", res.Fleet)
+	}
+	if layout != nil {
+		fmt.Fprintf(e.stdout, "; read through the layout %s, kept", layout.Source)
 	}
 	fmt.Fprintln(e.stdout)
 	return nil
