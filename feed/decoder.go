@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"math"
 	"math/bits"
-	"strconv"
 	"time"
 )
 
@@ -383,16 +382,9 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 			}
 			continue // optional: 0
 		}
-		x, plain, fast := parseDecimal(b)
-		if !fast {
-			var err error
-			x, err = strconv.ParseFloat(string(b), 64)
-			if err == nil && (math.IsNaN(x) || math.IsInf(x, 0)) {
-				return d.reject(n, h.name[c], ErrNotFinite, "not a finite number")
-			}
-			if err != nil || !plain {
-				return d.reject(n, h.name[c], ErrNumber, fmt.Sprintf("%s is not a number", quoteField(b)))
-			}
+		x, msg, kind := d.number(b)
+		if kind != nil {
+			return d.reject(n, h.name[c], kind, msg)
 		}
 		v[c] = x
 	}
