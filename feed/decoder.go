@@ -375,20 +375,32 @@ func (d *Decoder) row(rec *Record, n int) (bool, error) {
 		if h.idx[c] < 0 {
 			continue
 		}
-		b := d.fields[h.idx[c]]
-		if len(b) == 0 {
-			if c <= colTemp {
-				return d.reject(n, h.name[c], ErrEmpty, "empty")
-			}
-			continue // optional: 0
-		}
-		x, msg, kind := d.number(b)
-		if kind != nil {
-			return d.reject(n, h.name[c], kind, msg)
+		x, ok, err := d.value(n, c)
+		if !ok {
+			return false, err
 		}
 		v[c] = x
 	}
 	return d.finish(rec, n, &v)
+}
+
+// value reads the number of column c in line n: 0 for an optional one
+// left empty, a reject for an empty required one or one that is no
+// number.
+func (d *Decoder) value(n int, c column) (float64, bool, error) {
+	h := d.hdr
+	b := d.fields[h.idx[c]]
+	if len(b) == 0 {
+		if c <= colTemp {
+			return 0, false, d.rejectErr(n, h.name[c], ErrEmpty, "empty")
+		}
+		return 0, true, nil // optional: 0
+	}
+	x, msg, kind := d.number(b)
+	if kind != nil {
+		return 0, false, d.rejectErr(n, h.name[c], kind, msg)
+	}
+	return x, true, nil
 }
 
 // finish converts the values of a row, in the units h.unit names, into the

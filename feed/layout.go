@@ -90,26 +90,6 @@ const (
 	footM = 0.3048
 )
 
-// UnitsText lists the units of every field, for messages and the README.
-func UnitsText() string {
-	var out []string
-	for _, k := range layoutKeys {
-		if k.col == colTail || k.col == colFlight || k.key == "tat" {
-			continue
-		}
-		var names []string
-		for _, u := range layoutUnits[k.col] {
-			names = append(names, u.name)
-		}
-		key := k.key
-		if key == "sat" {
-			key = "sat, tat"
-		}
-		out = append(out, key+": "+strings.Join(names, ", "))
-	}
-	return strings.Join(out, "; ")
-}
-
 type layoutFile struct {
 	Name      string          `toml:"name"`
 	Separator string          `toml:"separator"`

@@ -12,9 +12,10 @@ import (
 // per-engine fields), and these the rest.
 type mapping struct {
 	lay       *Layout
-	eng       [numColumns][]int // per-engine field indices
-	konst     [numColumns]bool  // the field is the layout's constant
-	kval      [numColumns]float64
+	eng       [numColumns][]int      // per-engine field indices
+	konst     [numColumns]bool       // the field is the layout's constant
+	kval      [numColumns]float64    // a constant number, in dragdeck's column unit
+	ktext     [numColumns][]byte     // a constant tail or flight
 	conv      [numColumns][2]float64 // raw × [0] + [1] in dragdeck's column unit
 	date, clk int                    // field indices of a date and a time column (−1: one time column)
 	describe  []string               // how each field is found (check --layout)
@@ -104,7 +105,7 @@ func mapHeader(fields [][]byte, l *Layout) (*header, string) {
 		}
 		switch {
 		case fld.Const != "":
-			m.konst[c] = true
+			m.konst[c], m.ktext[c] = true, []byte(fld.Const)
 			if c != colTail && c != colFlight {
 				v, err := strconv.ParseFloat(fld.Const, 64)
 				if err != nil {

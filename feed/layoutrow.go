@@ -24,7 +24,7 @@ func (d *Decoder) mappedRow(rec *Record, n int, v *[numColumns]float64) (bool, e
 	rec.Time = t.UTC()
 	var why string
 	if m.konst[colTail] {
-		rec.Tail, why = d.tails.intern([]byte(m.lay.Fields[colTail].Const))
+		rec.Tail, why = d.tails.intern(m.ktext[colTail])
 	} else {
 		tail := d.fields[h.idx[colTail]]
 		if len(tail) == 0 {
@@ -39,7 +39,7 @@ func (d *Decoder) mappedRow(rec *Record, n int, v *[numColumns]float64) (bool, e
 		if d.flights.n > 1<<16 {
 			d.flights.reset()
 		}
-		fl := []byte(m.lay.Fields[colFlight].Const)
+		fl := m.ktext[colFlight]
 		if !m.konst[colFlight] {
 			fl = d.fields[h.idx[colFlight]]
 		}
@@ -62,18 +62,13 @@ func (d *Decoder) mappedRow(rec *Record, n int, v *[numColumns]float64) (bool, e
 			v[c] = x*m.conv[c][0] + m.conv[c][1]
 			continue
 		}
-		b := d.fields[h.idx[c]]
-		if len(b) == 0 {
-			if c <= colTemp {
-				return d.reject(n, h.name[c], ErrEmpty, "empty")
-			}
-			continue // optional: 0
+		x, ok, err := d.value(n, c)
+		if !ok {
+			return false, err
 		}
-		x, msg, kind := d.number(b)
-		if kind != nil {
-			return d.reject(n, h.name[c], kind, msg)
+		if len(d.fields[h.idx[c]]) > 0 { // an optional field left empty stays 0, not converted
+			v[c] = x*m.conv[c][0] + m.conv[c][1]
 		}
-		v[c] = x*m.conv[c][0] + m.conv[c][1]
 	}
 	return true, nil
 }
