@@ -4,10 +4,6 @@ import (
 	"fmt"
 	"strings"
 
-	"github.com/charmbracelet/bubbles/cursor"
-	"github.com/charmbracelet/bubbles/key"
-	"github.com/charmbracelet/bubbles/textinput"
-	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 
 	"dragdeck/feed/pipeline"
@@ -75,53 +71,26 @@ func factorCell(f pipeline.TailFactor, p store.Proposal, hasProposal, compact bo
 }
 
 // factorForm approves or rejects a tail's proposal with a note: the Fleet
-// screen's form behind the factor key, a sibling of the work form.
+// screen's form behind the factor key, a sibling of the work form. Its
+// choices are the statuses the proposal may move to here (applying needs
+// an effective date: the factor command's apply).
 type factorForm struct {
-	tail    string
-	prop    store.Proposal // ID 0: the run's, filed on saving
-	choices []string       // the statuses the proposal may move to here
-	choice  int
-	text    textinput.Model
+	tail string
+	prop store.Proposal // ID 0: the run's, filed on saving
+	noteForm
 }
 
 func newFactorForm(tail string, p store.Proposal) *factorForm {
-	ti := textinput.New()
-	ti.CharLimit = 200
-	ti.Cursor.SetMode(cursor.CursorStatic)
-	ti.Prompt = "note: "
-	f := &factorForm{tail: tail, prop: p, text: ti}
+	choices := []string{store.FactorApproved, store.FactorRejected}
 	if p.Status == store.FactorApproved {
-		// applying needs an effective date: the factor command's apply
-		f.choices = []string{store.FactorRejected}
-	} else {
-		f.choices = []string{store.FactorApproved, store.FactorRejected}
+		choices = []string{store.FactorRejected}
 	}
-	f.text.Focus()
-	return f
-}
-
-// update handles a key: done is set when the form is to be saved or
-// dropped (save says which).
-func (f *factorForm) update(km tea.KeyMsg) (done, save bool, cmd tea.Cmd) {
-	switch {
-	case key.Matches(km, keyWorkSave):
-		return true, true, nil
-	case key.Matches(km, keyWorkCancel):
-		return true, false, nil
-	case key.Matches(km, keyWorkNext):
-		f.choice = (f.choice + 1) % len(f.choices)
-		return false, false, nil
-	case key.Matches(km, keyWorkPrev):
-		f.choice = (f.choice + len(f.choices) - 1) % len(f.choices)
-		return false, false, nil
-	}
-	f.text, cmd = f.text.Update(km)
-	return false, false, cmd
+	return &factorForm{tail: tail, prop: p, noteForm: newNoteForm("note: ", "", choices)}
 }
 
 // save makes the move in the store and says what it did.
 func (f *factorForm) save(b FactorBook) (string, error) {
-	return b.Decide(f.tail, f.prop.ID, f.choices[f.choice], strings.TrimSpace(f.text.Value()))
+	return b.Decide(f.tail, f.prop.ID, f.chosen(), f.note())
 }
 
 // view is the form's lines, each wrapped at w: the proposal and what it
@@ -131,20 +100,14 @@ func (f *factorForm) view(st Styles, w int) string {
 	wrap := lipgloss.NewStyle().Width(max(1, w))
 	head := fmt.Sprintf("fuel factor %s %s: %s → %s %%", clean(f.tail), p.Period, fmtSigned(p.InUsePct, 1), fmtSigned(p.ProposedPct, 1))
 	basis := fmt.Sprintf(" · monitored %s [%s, %s] %%, %d flights", fmtSigned(p.MonitoredPct, 2), fmtSigned(p.LoPct, 2), fmtSigned(p.HiPct, 2), p.Flights)
-	var opts []string
-	for i, c := range f.choices {
-		label := map[string]string{store.FactorApproved: "approve", store.FactorRejected: "reject"}[c]
-		if i == f.choice {
-			opts = append(opts, st.Selected.Render("["+label+"]"))
-		} else {
-			opts = append(opts, " "+label+" ")
-		}
-	}
+	opts := f.options(st, func(c string) string {
+		return map[string]string{store.FactorApproved: "approve", store.FactorRejected: "reject"}[c]
+	})
 	status := "proposed → "
 	if p.Status == store.FactorApproved {
 		status = "approved (apply: dragdeck factor apply) → "
 	}
-	line2 := st.Muted.Render(status) + strings.Join(opts, "")
+	line2 := st.Muted.Render(status) + opts
 	if p.NeedsNote {
 		line2 += " " + st.Flag.Render("! outside the policy's range: approve with a note")
 	}

@@ -3,13 +3,7 @@ package tui
 import (
 	"fmt"
 	"slices"
-	"strings"
 	"time"
-
-	"github.com/charmbracelet/bubbles/cursor"
-	"github.com/charmbracelet/bubbles/key"
-	"github.com/charmbracelet/bubbles/textinput"
-	tea "github.com/charmbracelet/bubbletea"
 
 	"dragdeck/feed/store"
 )
@@ -40,55 +34,26 @@ func workStatusShort(s string) string {
 }
 
 // workForm opens an item for a tail, or moves its item on, with a note:
-// the Fleet screen's form behind the work key.
+// the Fleet screen's form behind the work key. Its choices are the
+// statuses the item may move to, and its own (a note alone); a new item
+// has none.
 type workForm struct {
-	tail    string
-	item    *store.WorkItem // nil: a new item
-	flag    string          // the flag that raises a new item
-	choices []string        // the statuses the item may move to, and its own (a note alone)
-	choice  int
-	text    textinput.Model
+	tail string
+	item *store.WorkItem // nil: a new item
+	flag string          // the flag that raises a new item
+	noteForm
 }
 
 func newWorkForm(tail string, item *store.WorkItem, flag, reason string) *workForm {
-	ti := textinput.New()
-	ti.CharLimit = 200
-	ti.Cursor.SetMode(cursor.CursorStatic)
-	f := &workForm{tail: tail, item: item, flag: flag, text: ti}
 	if item == nil {
-		ti.Prompt = "reason: "
-		ti.SetValue(reason)
-	} else {
-		ti.Prompt = "note: "
-		f.choices = append(slices.Clone(store.Next(item.Status)), item.Status)
+		return &workForm{tail: tail, flag: flag, noteForm: newNoteForm("reason: ", reason, nil)}
 	}
-	f.text = ti
-	f.text.Focus()
-	return f
-}
-
-// update handles a key: done is set when the form is to be saved or
-// dropped (save says which).
-func (f *workForm) update(km tea.KeyMsg) (done, save bool, cmd tea.Cmd) {
-	switch {
-	case key.Matches(km, keyWorkSave):
-		return true, true, nil
-	case key.Matches(km, keyWorkCancel):
-		return true, false, nil
-	case f.item != nil && key.Matches(km, keyWorkNext):
-		f.choice = (f.choice + 1) % len(f.choices)
-		return false, false, nil
-	case f.item != nil && key.Matches(km, keyWorkPrev):
-		f.choice = (f.choice + len(f.choices) - 1) % len(f.choices)
-		return false, false, nil
-	}
-	f.text, cmd = f.text.Update(km)
-	return false, false, cmd
+	return &workForm{tail: tail, item: item, noteForm: newNoteForm("note: ", "", append(slices.Clone(store.Next(item.Status)), item.Status))}
 }
 
 // save writes the form to the work list and says what it did.
 func (f *workForm) save(w WorkList) (string, error) {
-	text := strings.TrimSpace(f.text.Value())
+	text := f.note()
 	if f.item == nil {
 		id, err := w.Open(f.tail, text, f.flag)
 		if err != nil {
@@ -96,7 +61,7 @@ func (f *workForm) save(w WorkList) (string, error) {
 		}
 		return fmt.Sprintf("work item #%d opened for %s", id, f.tail), nil
 	}
-	status := f.choices[f.choice]
+	status := f.chosen()
 	if err := w.Set(f.item.ID, status, text); err != nil {
 		return "", err
 	}
@@ -115,19 +80,13 @@ func (f *workForm) view(st Styles, w int) string {
 		}
 		return truncate(st.Accent.Render(head)+st.Muted.Render(" · enter saves, esc drops"), w) + "\n" + truncate(f.text.View(), w)
 	}
-	var opts []string
-	for i, c := range f.choices {
-		label := c
+	opts := f.options(st, func(c string) string {
 		if c == f.item.Status {
-			label = "note only"
+			return "note only"
 		}
-		if i == f.choice {
-			opts = append(opts, st.Selected.Render("["+label+"]"))
-		} else {
-			opts = append(opts, " "+label+" ")
-		}
-	}
+		return c
+	})
 	head := fmt.Sprintf("item #%d %s %s → ", f.item.ID, clean(f.tail), f.item.Status)
-	return truncate(st.Accent.Render(head)+strings.Join(opts, "")+st.Muted.Render(" ←/→ choose · enter saves · esc drops"), w) +
+	return truncate(st.Accent.Render(head)+opts+st.Muted.Render(" ←/→ choose · enter saves · esc drops"), w) +
 		"\n" + truncate(f.text.View(), w)
 }
